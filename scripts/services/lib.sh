@@ -1,0 +1,135 @@
+# shellcheck shell=bash
+# shellcheck disable=SC2034 # variables here are used by the files that source this one
+# Shared settings and helpers for scripts/services.sh and its helpers.
+# Sourced, never executed. Reads only the EMFOLIO_*_PORT variables (with
+# defaults); nothing here needs the app's .env.
+
+SERVICES_DIR="$(cd "$(dirname "${BASH_SOURCE[0]}")" && pwd)"
+PROJECT_ROOT="$(cd "$SERVICES_DIR/../.." && pwd)"
+
+EMFOLIO_PG_PORT="${EMFOLIO_PG_PORT:-54329}"
+EMFOLIO_REDIS_PORT="${EMFOLIO_REDIS_PORT:-63799}"
+EMFOLIO_S3_PORT="${EMFOLIO_S3_PORT:-45690}"
+EMFOLIO_SMTP_PORT="${EMFOLIO_SMTP_PORT:-2529}"
+
+DATA_DIR="$PROJECT_ROOT/.data"
+RUN_DIR="$DATA_DIR/run"
+LOG_DIR="$DATA_DIR/log"
+
+TSX="$PROJECT_ROOT/node_modules/.bin/tsx"
+
+# Seconds to wait for a service to answer after starting it.
+START_TIMEOUT_PG=60
+START_TIMEOUT_DEFAULT=30
+
+# All services, in start order (stop runs in reverse).
+ALL_SERVICES=(postgres redis s3 smtp)
+
+say() { printf '%s\n' "$*"; }
+warn() { printf '%s\n' "$*" >&2; }
+die() {
+  warn "error: $*"
+  exit 1
+}
+
+ensure_layout() {
+  mkdir -p "$DATA_DIR" "$RUN_DIR" "$LOG_DIR"
+  # The postgres user must be able to traverse .data (its cluster lives there).
+  chmod 755 "$DATA_DIR" "$RUN_DIR" "$LOG_DIR"
+}
+
+# relpath PATH: PATH relative to the project root when inside it, for messages.
+relpath() {
+  case "$1" in
+    "$PROJECT_ROOT"/*) printf '%s' "${1#"$PROJECT_ROOT"/}" ;;
+    *) printf '%s' "$1" ;;
+  esac
+}
+
+# wait_for SECONDS CMD...: retry CMD every 0.25 s until it succeeds or time runs out.
+wait_for() {
+  local timeout="$1"
+  shift
+  local deadline=$((SECONDS + timeout))
+  while ((SECONDS < deadline)); do
+    if "$@" >/dev/null 2>&1; then
+      return 0
+    fi
+    sleep 0.25
+  done
+  "$@" >/dev/null 2>&1
+}
+
+# wait_gone SECONDS CMD...: wait until CMD stops succeeding.
+wait_gone() {
+  local timeout="$1"
+  shift
+  local deadline=$((SECONDS + timeout))
+  while ((SECONDS < deadline)); do
+    if ! "$@" >/dev/null 2>&1; then
+      return 0
+    fi
+    sleep 0.25
+  done
+  ! "$@" >/dev/null 2>&1
+}
+
+# fail_start NAME LOGFILE: report a service that did not come up, with its log tail.
+fail_start() {
+  local name="$1" log="$2"
+  warn "error: $name did not come up; see $(relpath "$log")"
+  if [[ -f "$log" ]]; then
+    warn "---- last lines of $(relpath "$log") ----"
+    tail -n 20 "$log" >&2 || true
+    warn "----"
+  fi
+  return 1
+}
+
+# tcp_open PORT: something accepts TCP connections on 127.0.0.1:PORT.
+tcp_open() {
+  (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null
+}
+
+# pid_alive PIDFILE: the pid in PIDFILE is a running process.
+pid_alive() {
+  local pidfile="$1" pid
+  [[ -s "$pidfile" ]] || return 1
+  pid="$(tr -dc '0-9' <"$pidfile")"
+  [[ -n "$pid" ]] || return 1
+  kill -0 "$pid" 2>/dev/null
+}
+
+read_pid() {
+  tr -dc '0-9' <"$1"
+}
+
+# listener_pid PORT: pid of the process listening on 127.0.0.1:PORT (empty if none).
+listener_pid() {
+  ss -Hltnp "sport = :$1" 2>/dev/null | sed -n 's/.*pid=\([0-9]*\).*/\1/p' | head -n 1
+}
+
+# apt_install PKG...: install Debian packages, running `apt-get update` at most
+# once per invocation of the calling script.
+APT_UPDATED=0
+apt_install() {
+  ((EUID == 0)) || die "installing $* needs root (apt-get)"
+  export DEBIAN_FRONTEND=noninteractive
+  if ((APT_UPDATED == 0)); then
+    say "apt-get update"
+    apt-get update -qq
+    APT_UPDATED=1
+  fi
+  say "apt-get install -y $*"
+  apt-get install -y -qq "$@"
+}
+
+# pkg_installed PKG: the Debian package is installed.
+pkg_installed() {
+  [[ "$(dpkg-query -W -f='${Status}' "$1" 2>/dev/null)" == "install ok installed" ]]
+}
+
+need_node_modules() {
+  [[ -x "$TSX" && -d "$PROJECT_ROOT/node_modules/s3rver" && -d "$PROJECT_ROOT/node_modules/smtp-server" ]] ||
+    die "node_modules is incomplete (tsx, s3rver, smtp-server): run 'npm ci' first"
+}

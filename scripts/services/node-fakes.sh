@@ -1,0 +1,148 @@
+# shellcheck shell=bash
+# Local Node fakes for scripts/services.sh (S3 via s3rver, SMTP via smtp-server).
+# Sourced after lib.sh. Each runs detached (setsid + nohup) in its own process
+# group; log in .data/log/<name>.log, pid in .data/run/<name>.pid.
+
+S3_DIR="$DATA_DIR/s3"
+S3_BUCKETS=(emfolio-captures emfolio-test)
+S3_CORS="$SERVICES_DIR/s3-cors.xml"
+MAIL_DIR="$DATA_DIR/mail"
+
+s3_probe() {
+  local code
+  code="$(curl -s -o /dev/null -w '%{http_code}' --max-time 2 "http://127.0.0.1:$EMFOLIO_S3_PORT/" 2>/dev/null)" || true
+  [[ -n "$code" && "$code" != "000" ]]
+}
+
+# Reads the SMTP greeting; a 220 line means the fake is ready.
+smtp_probe() {
+  (
+    exec 3<>"/dev/tcp/127.0.0.1/$EMFOLIO_SMTP_PORT" || exit 1
+    line=""
+    IFS= read -r -t 3 line <&3 || exit 1
+    printf 'QUIT\r\n' >&3 || true
+    exec 3>&-
+    [[ "$line" == 220* ]]
+  ) 2>/dev/null
+}
+
+# node_fake_start NAME PORT PROBE CMD...
+node_fake_start() {
+  local name="$1" port="$2" probe="$3"
+  shift 3
+  local pidfile="$RUN_DIR/$name.pid" log="$LOG_DIR/$name.log"
+  need_node_modules
+  if pid_alive "$pidfile"; then
+    if wait_for "$START_TIMEOUT_DEFAULT" "$probe"; then
+      say "$name: already running on 127.0.0.1:$port (pid $(read_pid "$pidfile"))"
+      return 0
+    fi
+    fail_start "$name" "$log"
+    return 1
+  fi
+  rm -f "$pidfile"
+  if "$probe"; then
+    say "$name: already answering on 127.0.0.1:$port (pid $(listener_pid "$port"), no pid file: not started by this checkout?)"
+    return 0
+  fi
+  if tcp_open "$port"; then
+    die "$name: port $port is taken by another process (pid $(listener_pid "$port")); set the port variable"
+  fi
+  say "$name: starting on 127.0.0.1:$port"
+  printf '\n==== %s start %s ====\n' "$name" "$(date -u +%Y-%m-%dT%H:%M:%SZ)" >>"$log"
+  # Not a process-group leader here (no job control), so setsid keeps the pid:
+  # pid == process group id, and stop can signal the whole group.
+  (cd "$PROJECT_ROOT" && exec setsid nohup "$@" >>"$log" 2>&1 </dev/null) &
+  printf '%s\n' "$!" >"$pidfile"
+  local deadline=$((SECONDS + START_TIMEOUT_DEFAULT))
+  while ((SECONDS < deadline)); do
+    if "$probe"; then
+      # Should setsid have forked after all, record the real listener.
+      pid_alive "$pidfile" || listener_pid "$port" >"$pidfile"
+      return 0
+    fi
+    if ! pid_alive "$pidfile"; then
+      rm -f "$pidfile"
+      fail_start "$name" "$log"
+      return 1
+    fi
+    sleep 0.25
+  done
+  fail_start "$name" "$log"
+  return 1
+}
+
+# Our own process, judged by its command line (so a recycled pid is never killed).
+node_fake_owns() {
+  local pid="$1" marker="$2"
+  [[ -r "/proc/$pid/cmdline" ]] && tr '\0' ' ' <"/proc/$pid/cmdline" | grep -qF -- "$marker"
+}
+
+# node_fake_stop NAME PORT MARKER
+node_fake_stop() {
+  local name="$1" port="$2" marker="$3"
+  local pidfile="$RUN_DIR/$name.pid" pid=""
+  if pid_alive "$pidfile"; then
+    pid="$(read_pid "$pidfile")"
+  else
+    # No pid file (or a stale one): look for our own process on the port.
+    pid="$(listener_pid "$port")"
+    if [[ -z "$pid" ]] || ! node_fake_owns "$pid" "$marker"; then
+      rm -f "$pidfile"
+      if [[ -n "$pid" ]]; then
+        warn "$name: port $port is held by pid $pid, which is not ours; left alone"
+      else
+        say "$name: not running"
+      fi
+      return 0
+    fi
+  fi
+  say "$name: stopping (pid $pid)"
+  if [[ "$(ps -o pgid= -p "$pid" | tr -d ' ')" == "$pid" ]]; then
+    kill -TERM -- "-$pid" 2>/dev/null || true
+  else
+    kill -TERM "$pid" 2>/dev/null || true
+  fi
+  if ! wait_gone 10 kill -0 "$pid"; then
+    warn "$name: pid $pid ignored SIGTERM, sending SIGKILL"
+    kill -KILL -- "-$pid" 2>/dev/null || kill -KILL "$pid" 2>/dev/null || true
+    wait_gone 5 kill -0 "$pid" || true
+  fi
+  wait_gone 10 tcp_open "$port" || warn "$name: port $port still open"
+  rm -f "$pidfile"
+}
+
+s3_start() {
+  mkdir -p "$S3_DIR"
+  local args=(-d "$S3_DIR" -a 127.0.0.1 -p "$EMFOLIO_S3_PORT")
+  local b
+  for b in "${S3_BUCKETS[@]}"; do
+    args+=(--configure-bucket "$b" "$S3_CORS")
+  done
+  NODE_OPTIONS="--openssl-legacy-provider${NODE_OPTIONS:+ $NODE_OPTIONS}" \
+    node_fake_start s3 "$EMFOLIO_S3_PORT" s3_probe \
+    node "$PROJECT_ROOT/node_modules/s3rver/bin/s3rver.js" "${args[@]}"
+}
+
+s3_stop() {
+  node_fake_stop s3 "$EMFOLIO_S3_PORT" "s3rver"
+}
+
+s3_status_detail() {
+  printf 'http://127.0.0.1:%s (S3RVER/S3RVER, path style; buckets %s)' "$EMFOLIO_S3_PORT" \
+    "$(IFS=,; printf '%s' "${S3_BUCKETS[*]}")"
+}
+
+smtp_start() {
+  mkdir -p "$MAIL_DIR"
+  node_fake_start smtp "$EMFOLIO_SMTP_PORT" smtp_probe \
+    "$TSX" "$SERVICES_DIR/smtp-server.ts" --port "$EMFOLIO_SMTP_PORT" --dir "$MAIL_DIR"
+}
+
+smtp_stop() {
+  node_fake_stop smtp "$EMFOLIO_SMTP_PORT" "smtp-server.ts"
+}
+
+smtp_status_detail() {
+  printf 'smtp://127.0.0.1:%s (any or no auth; mail in .data/mail)' "$EMFOLIO_SMTP_PORT"
+}
