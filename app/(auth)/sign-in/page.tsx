@@ -1,0 +1,28 @@
+import type { Metadata } from "next";
+import { redirect } from "next/navigation";
+import { SafetyCaution } from "@/components/shell/safety-caution";
+import { getSessionUser } from "@/lib/auth/guards";
+import { SignInForm } from "./_components/sign-in-form";
+
+export const metadata: Metadata = { title: "Sign in" };
+
+export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string }> }) {
+  const { next } = await searchParams;
+  const target = next && next.startsWith("/") && !next.startsWith("//") ? next : "/";
+  if (await getSessionUser()) redirect(target);
+  return (
+    <main className="mx-auto flex min-h-screen max-w-md flex-col justify-center gap-6 px-4 py-10">
+      <div>
+        <p className="text-3xl font-bold tracking-tight text-ink-900">
+          Em<span className="text-copper-600">folio</span>
+        </p>
+        <p className="mt-1 text-sm text-ink-600">Waveform records for alternator and PM-machine test benches.</p>
+      </div>
+      <div className="rounded-lg bg-white p-6 shadow-sm ring-1 ring-ink-200">
+        <h1 className="mb-4 text-lg font-semibold">Sign in</h1>
+        <SignInForm target={target} />
+      </div>
+      <SafetyCaution compact />
+    </main>
+  );
+}

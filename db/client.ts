@@ -1,0 +1,25 @@
+import { drizzle, type NodePgDatabase } from "drizzle-orm/node-postgres";
+import { Pool } from "pg";
+import { getEnv } from "@/lib/server/env";
+import * as schema from "./schema";
+
+// The one pool. Only db/queries/* may import this file.
+export type Db = NodePgDatabase<typeof schema>;
+
+const globalForDb = globalThis as unknown as { emfolioPool?: Pool; emfolioDb?: Db };
+
+export function getDb(): Db {
+  if (globalForDb.emfolioDb) return globalForDb.emfolioDb;
+  const pool = new Pool({ connectionString: getEnv().DATABASE_URL, max: 10 });
+  pool.on("error", (err) => console.error("PostgreSQL pool error:", err.message));
+  globalForDb.emfolioPool = pool;
+  globalForDb.emfolioDb = drizzle(pool, { schema });
+  return globalForDb.emfolioDb;
+}
+
+export async function closeDb(): Promise<void> {
+  const pool = globalForDb.emfolioPool;
+  globalForDb.emfolioPool = undefined;
+  globalForDb.emfolioDb = undefined;
+  await pool?.end();
+}

@@ -1,0 +1,8 @@
+import next from "eslint-config-next";
+
+const config = [
+  { ignores: [".next/**", "node_modules/**", ".data/**", "bench-out/**", "next-env.d.ts", "db/migrations/**"] },
+  ...next,
+];
+
+export default config;

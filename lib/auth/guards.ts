@@ -1,0 +1,44 @@
+import "server-only";
+import { getServerSession } from "next-auth";
+import { redirect } from "next/navigation";
+import type { Role } from "@/db/schema";
+import { authOptions, type SessionUser } from "./options";
+
+export async function getSessionUser(): Promise<SessionUser | null> {
+  const session = await getServerSession(authOptions);
+  return session?.user?.id ? session.user : null;
+}
+
+/** For pages and server actions: no session -> sign-in page. */
+export async function requireUser(): Promise<SessionUser> {
+  const user = await getSessionUser();
+  if (!user) redirect("/sign-in");
+  return user;
+}
+
+/** For pages and server actions: wrong role -> access-denied page. */
+export async function requireRole(...roles: Role[]): Promise<SessionUser> {
+  const user = await requireUser();
+  if (!roles.includes(user.role)) redirect("/access-denied");
+  return user;
+}
+
+export class HttpError extends Error {
+  constructor(readonly status: number, message: string) {
+    super(message);
+  }
+}
+
+/** For route handlers: throws HttpError(401/403); turn it into JSON with `errorResponse`. */
+export async function requireApiUser(...roles: Role[]): Promise<SessionUser> {
+  const user = await getSessionUser();
+  if (!user) throw new HttpError(401, "Sign in first.");
+  if (roles.length > 0 && !roles.includes(user.role)) throw new HttpError(403, "Your role may not do this.");
+  return user;
+}
+
+export function errorResponse(err: unknown): Response {
+  if (err instanceof HttpError) return Response.json({ error: err.message }, { status: err.status });
+  console.error(err);
+  return Response.json({ error: "Something went wrong on the server." }, { status: 500 });
+}

@@ -1,0 +1,16 @@
+import type { Role } from "@/db/schema";
+
+declare module "next-auth" {
+  interface Session {
+    user: import("./options").SessionUser;
+  }
+  interface User {
+    id: string; role: Role; organisationId: string; organisationName: string; organisationKind: "lab" | "manufacturer";
+  }
+}
+
+declare module "next-auth/jwt" {
+  interface JWT {
+    uid: string; role: Role; orgId: string; orgName: string; orgKind: "lab" | "manufacturer";
+  }
+}

@@ -1,0 +1,47 @@
+import { z } from "zod";
+
+// The one place that reads process.env. Empty strings count as missing.
+const blankToUndefined = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);
+const str = () => z.preprocess(blankToUndefined, z.string());
+const url = () => z.preprocess(blankToUndefined, z.url());
+const int = (def: number) => z.preprocess(blankToUndefined, z.coerce.number().int().positive().default(def));
+
+export const envSchema = z.object({
+  NODE_ENV: z.preprocess(blankToUndefined, z.enum(["development", "production", "test"]).default("development")),
+  DATABASE_URL: url(),
+  REDIS_URL: url(),
+  QUEUE_PREFIX: z.preprocess(blankToUndefined, z.string().regex(/^[a-z0-9_-]+$/).default("emfolio")),
+  S3_ENDPOINT: url(),
+  S3_PUBLIC_ENDPOINT: z.preprocess(blankToUndefined, z.url().optional()),
+  S3_REGION: z.preprocess(blankToUndefined, z.string().default("us-east-1")),
+  S3_ACCESS_KEY_ID: str(),
+  S3_SECRET_ACCESS_KEY: str(),
+  S3_BUCKET: str(),
+  S3_FORCE_PATH_STYLE: z.preprocess(blankToUndefined, z.enum(["true", "false"]).default("true")),
+  NEXTAUTH_SECRET: z.preprocess(blankToUndefined, z.string().min(32, "must be at least 32 characters")),
+  NEXTAUTH_URL: url(),
+  SMTP_HOST: z.preprocess(blankToUndefined, z.string().default("127.0.0.1")),
+  SMTP_PORT: int(2529),
+  MAIL_FROM: z.preprocess(blankToUndefined, z.string().default("Emfolio <no-reply@emfolio.invalid>")),
+  MAIL_DIR: z.preprocess(blankToUndefined, z.string().optional()),
+  UPLOAD_MAX_BYTES: int(2 * 1024 * 1024 * 1024),
+  WORKER_CONCURRENCY: int(1),
+  SIGN_IN_MAX_ATTEMPTS: int(8),
+  SIGN_IN_WINDOW_S: int(900),
+});
+
+export type Env = Readonly<z.infer<typeof envSchema>>;
+
+let cached: Env | undefined;
+
+/** Parses the environment once; throws an error that names every missing or bad variable. */
+export function getEnv(): Env {
+  if (cached) return cached;
+  const parsed = envSchema.safeParse(process.env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
+    throw new Error(`Emfolio configuration is incomplete (see .env.example):\n${lines.join("\n")}`);
+  }
+  cached = Object.freeze(parsed.data);
+  return cached;
+}
