@@ -1,0 +1,187 @@
+import { ColumnSink, type SinkColumn } from "./column-sink";
+import { createFastBodyParser, type BodyParser } from "./fast-body-parser";
+import { createReferenceBodyParser } from "./reference-body-parser";
+import { CaptureRejection } from "./rejection";
+import { sniffLines, type CaptureLayout } from "./sniff";
+import { siUnitFor } from "./units";
+import type { ParsedCapture, ParseOptions, QualityWarning } from "./types";
+
+const HEAD_LINES = 64;
+const HEAD_BYTES = 1 << 20;
+const DEFAULT_MAX_BYTES = 2 * 1024 ** 3;
+const MIN_SAMPLES = 16;
+
+function rejectBinary(head: Uint8Array): void {
+  let control = 0;
+  for (let i = 0; i < head.length; i++) {
+    const byte = head[i] as number;
+    if (byte === 0) throw new CaptureRejection("binary", "The file holds binary data (a NUL byte), not CSV text", { line: lineAt(head, i) });
+    if (byte < 32 && byte !== 9 && byte !== 10 && byte !== 13) control++;
+  }
+  if (control > Math.max(8, head.length / 100)) {
+    throw new CaptureRejection("binary", "The file holds binary data (control bytes), not CSV text", { line: 1 });
+  }
+}
+
+function lineAt(bytes: Uint8Array, offset: number): number {
+  let line = 1;
+  for (let i = 0; i < offset; i++) if (bytes[i] === 10) line++;
+  return line;
+}
+
+interface HeadLines {
+  lines: string[];
+  starts: number[];
+}
+
+function splitHead(head: Uint8Array, final: boolean): HeadLines {
+  const decoder = new TextDecoder();
+  const lines: string[] = [];
+  const starts: number[] = [];
+  let start = 0;
+  for (;;) {
+    const newline = head.indexOf(10, start);
+    if (newline < 0) break;
+    starts.push(start);
+    lines.push(decoder.decode(head.subarray(start, newline)).replace(/\r$/, ""));
+    start = newline + 1;
+  }
+  if (final && start < head.length) {
+    starts.push(start);
+    lines.push(decoder.decode(head.subarray(start)).replace(/\r$/, ""));
+  }
+  if (lines[0] !== undefined) lines[0] = lines[0].replace(/^\uFEFF/, "");
+  return { lines, starts };
+}
+
+function concat(chunks: Uint8Array[], total: number): Uint8Array {
+  const out = new Uint8Array(total);
+  let offset = 0;
+  for (const chunk of chunks) {
+    out.set(chunk, offset);
+    offset += chunk.length;
+  }
+  return out;
+}
+
+/**
+ * Streaming capture parser: push chunks of bytes as they arrive, then call `finish`.
+ * Only the first lines are buffered (to find the dialect and header); the body goes straight
+ * into typed arrays. Throws CaptureRejection for any input it cannot take.
+ */
+export function createCaptureParser(options: ParseOptions = {}): { push(chunk: Uint8Array): void; finish(): ParsedCapture } {
+  const maxBytes = options.maxBytes ?? DEFAULT_MAX_BYTES;
+  let received = 0;
+  let headChunks: Uint8Array[] = [];
+  let headBytes = 0;
+  let headNewlines = 0;
+  let headLineTarget = HEAD_LINES;
+  let layout: CaptureLayout | null = null;
+  let body: BodyParser | null = null;
+  let sink: ColumnSink | null = null;
+  let finished = false;
+
+  function start(final: boolean): void {
+    const head = concat(headChunks, headBytes);
+    headChunks = [head];
+    rejectBinary(head);
+    const { lines, starts } = splitHead(head, final);
+    layout = sniffLines(lines);
+    headChunks = [];
+    const bodyOffset = starts[layout.dataStartIndex] ?? head.length;
+    const bytesPerRow = Math.max(1, (head.length - bodyOffset) / Math.max(1, lines.length - layout.dataStartIndex));
+    const expectedRows = options.expectedBytes ? (options.expectedBytes - bodyOffset) / bytesPerRow : 0;
+    const columns: SinkColumn[] = layout.headers.map((header, index) => {
+      const calibration = options.calibration?.[header];
+      const unitFactor = layout?.units[index]?.factor ?? 1;
+      return { header, factor: unitFactor * (calibration?.scale ?? 1), offset: calibration?.offset ?? 0 };
+    });
+    const timeFactor = layout.timeColumn !== null ? (layout.units[layout.timeColumn]?.factor ?? 1) : 1;
+    sink = new ColumnSink(columns, layout.timeColumn, timeFactor, options.timeStepTolerance ?? 0.25, expectedRows * 1.02 + 1024);
+    const makeBody = options.engine === "reference" ? createReferenceBodyParser : createFastBodyParser;
+    body = makeBody(sink, layout.headers, layout.delimiter, layout.decimal, layout.dataStartIndex + 1);
+    body.push(head.subarray(bodyOffset));
+  }
+
+  return {
+    push(chunk: Uint8Array): void {
+      if (finished) throw new Error("createCaptureParser: push after finish");
+      received += chunk.length;
+      if (received > maxBytes) {
+        throw new CaptureRejection("oversize", `The file is larger than the ${Math.round(maxBytes / 1024 ** 2)} MiB allowed`);
+      }
+      if (body) {
+        body.push(chunk);
+        return;
+      }
+      headChunks.push(chunk);
+      headBytes += chunk.length;
+      for (let i = chunk.indexOf(10); i >= 0; i = chunk.indexOf(10, i + 1)) headNewlines++;
+      if (headNewlines < headLineTarget && headBytes < HEAD_BYTES) return;
+      try {
+        start(false);
+      } catch (error) {
+        // A long preamble can hide the data rows: read further before giving up.
+        if (!(error instanceof CaptureRejection && error.code === "no-numeric-data" && headBytes < HEAD_BYTES)) throw error;
+        headLineTarget = headNewlines * 2;
+      }
+    },
+    finish(): ParsedCapture {
+      if (finished) throw new Error("createCaptureParser: finish called twice");
+      finished = true;
+      if (!body) {
+        if (headBytes === 0) throw new CaptureRejection("empty", "The file is empty");
+        start(true);
+      }
+      (body as BodyParser).finish();
+      return assemble(layout as CaptureLayout, (sink as ColumnSink).finish(), options);
+    },
+  };
+}
+
+function assemble(layout: CaptureLayout, result: ReturnType<ColumnSink["finish"]>, options: ParseOptions): ParsedCapture {
+  const warnings: QualityWarning[] = [...result.warnings];
+  if (result.sampleCount < MIN_SAMPLES) {
+    throw new CaptureRejection(
+      "too-few-samples",
+      `Only ${result.sampleCount} sample rows: at least ${MIN_SAMPLES} are needed`,
+      { line: layout.dataStartIndex + 1 },
+    );
+  }
+  const channelIndices = layout.headers.map((_, index) => index).filter((index) => index !== layout.timeColumn);
+  if (channelIndices.length === 0) {
+    throw new CaptureRejection("no-channels", "Only a time column was found: no channel to analyse", { line: layout.dataStartIndex });
+  }
+  let sampleRateHz = result.sampleRateHz;
+  if (sampleRateHz === null) sampleRateHz = options.sampleRateHz ?? layout.preambleSampleRateHz;
+  if (sampleRateHz === null || !(sampleRateHz > 0) || !Number.isFinite(sampleRateHz)) {
+    throw new CaptureRejection(
+      "no-time-base",
+      "No time column and no sample interval or sample rate in the preamble: give the sample rate",
+      { line: layout.dataStartIndex + 1 },
+    );
+  }
+  const channels = channelIndices.map((index, position) => {
+    const header = layout.headers[index] as string;
+    const unit = layout.units[index];
+    if (!unit || unit.written === null) {
+      warnings.push({ code: "unit-assumed", message: `Column "${header}" names no unit; assumed ${unit ? siUnitFor(unit) : "V"} without prefix` });
+    }
+    return { id: header, unit: unit ? siUnitFor(unit) : ("V" as const), samples: result.channels[position] as Float64Array };
+  });
+  return {
+    sampleRateHz,
+    sampleCount: result.sampleCount,
+    timeStartS: result.timeStartS ?? 0,
+    channels,
+    metadata: layout.metadata,
+    warnings,
+  };
+}
+
+/** Convenience for tests and small inputs: the same path as streaming, in one chunk. */
+export function parseCaptureText(text: string, options: ParseOptions = {}): ParsedCapture {
+  const parser = createCaptureParser(options);
+  parser.push(new TextEncoder().encode(text));
+  return parser.finish();
+}

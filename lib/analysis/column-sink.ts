@@ -1,0 +1,156 @@
+import { CaptureRejection } from "./rejection";
+import type { QualityWarning } from "./types";
+
+export interface SinkColumn {
+  header: string;
+  /** Multiplies the raw value: unit prefix × probe ratio. */
+  factor: number;
+  offset: number;
+}
+
+export interface SinkResult {
+  sampleCount: number;
+  /** Views of exactly `sampleCount` values, one per channel column. */
+  channels: Float64Array[];
+  timeStartS: number | null;
+  sampleRateHz: number | null;
+  warnings: QualityWarning[];
+}
+
+const MIN_CAPACITY = 4096;
+
+/**
+ * Receives parsed rows from either body parser and keeps the samples in typed arrays that
+ * grow geometrically. Time stamps are checked as they arrive and are not stored: only the
+ * first value, the step extremes and the line where each occurred are kept.
+ */
+export class ColumnSink {
+  private readonly stores: Float64Array[];
+  private count = 0;
+  private capacity: number;
+  private readonly firstMissingLine: number[];
+  private lastLine = 0;
+  private timeStart = Number.NaN;
+  private timePrevious = Number.NaN;
+  private minStep = Number.POSITIVE_INFINITY;
+  private maxStep = 0;
+  private minStepLine = 0;
+  private maxStepLine = 0;
+
+  constructor(
+    private readonly columns: readonly SinkColumn[],
+    private readonly timeColumn: number | null,
+    private readonly timeFactor: number,
+    private readonly timeStepTolerance: number,
+    initialCapacity: number,
+  ) {
+    const capacity = Math.max(MIN_CAPACITY, Math.ceil(initialCapacity));
+    this.capacity = capacity;
+    this.stores = columns.map((_, index) => (index === timeColumn ? new Float64Array(0) : new Float64Array(capacity)));
+    this.firstMissingLine = columns.map(() => -1);
+  }
+
+  /** `row[c]` is NaN for an empty cell. */
+  accept(row: Float64Array, line: number): void {
+    const n = this.count;
+    if (n >= this.capacity) this.grow();
+    for (let c = 0; c < this.columns.length; c++) {
+      const value = row[c] as number;
+      if (value !== value) {
+        if (this.firstMissingLine[c] === -1) this.firstMissingLine[c] = line;
+      } else if (this.firstMissingLine[c] !== -1) {
+        throw new CaptureRejection("missing-value", "Empty cell between values: every row needs a value in every column", {
+          line: this.firstMissingLine[c] as number,
+          column: this.columns[c]?.header ?? `#${c + 1}`,
+        });
+      }
+      if (c === this.timeColumn) {
+        if (value === value) this.acceptTime(value * this.timeFactor, line);
+      } else {
+        const column = this.columns[c] as SinkColumn;
+        (this.stores[c] as Float64Array)[n] = value * column.factor + column.offset;
+      }
+    }
+    this.count = n + 1;
+    this.lastLine = line;
+  }
+
+  private acceptTime(timeS: number, line: number): void {
+    if (this.count === 0) {
+      this.timeStart = timeS;
+    } else {
+      const step = timeS - this.timePrevious;
+      if (!(step > 0)) {
+        throw new CaptureRejection(
+          "time-not-increasing",
+          `Time stamps must increase: ${timeS} s follows ${this.timePrevious} s`,
+          { line, column: this.columns[this.timeColumn as number]?.header ?? "time" },
+        );
+      }
+      if (step < this.minStep) {
+        this.minStep = step;
+        this.minStepLine = line;
+      }
+      if (step > this.maxStep) {
+        this.maxStep = step;
+        this.maxStepLine = line;
+      }
+    }
+    this.timePrevious = timeS;
+  }
+
+  private grow(): void {
+    this.capacity = Math.ceil(this.capacity * 1.5);
+    for (let c = 0; c < this.stores.length; c++) {
+      if (c === this.timeColumn) continue;
+      const old = this.stores[c] as Float64Array;
+      const next = new Float64Array(this.capacity);
+      next.set(old);
+      this.stores[c] = next;
+    }
+  }
+
+  finish(): SinkResult {
+    for (let c = 0; c < this.columns.length; c++) {
+      const missing = this.firstMissingLine[c] as number;
+      if (missing !== -1) {
+        throw new CaptureRejection(
+          "unequal-length",
+          `Channels have unequal length: this column stops at line ${missing - 1} while others continue to line ${this.lastLine}`,
+          { line: missing, column: this.columns[c]?.header ?? `#${c + 1}` },
+        );
+      }
+    }
+    const warnings: QualityWarning[] = [];
+    let sampleRateHz: number | null = null;
+    if (this.timeColumn !== null && this.count >= 2) {
+      const meanStep = (this.timePrevious - this.timeStart) / (this.count - 1);
+      const slow = (this.maxStep - meanStep) / meanStep;
+      const fast = (meanStep - this.minStep) / meanStep;
+      const worst = Math.max(slow, fast);
+      const worstLine = slow >= fast ? this.maxStepLine : this.minStepLine;
+      const column = this.columns[this.timeColumn]?.header ?? "time";
+      if (worst > this.timeStepTolerance) {
+        throw new CaptureRejection(
+          "irregular-time",
+          `Irregular time stamps: one step differs from the mean step (${meanStep.toPrecision(6)} s) by ${(100 * worst).toFixed(1)} %, more than the ${(100 * this.timeStepTolerance).toFixed(1)} % allowed (missing samples or a merged record?)`,
+          { line: worstLine, column },
+        );
+      }
+      if (worst > 0.01) {
+        warnings.push({
+          code: "uneven-sampling",
+          message: `Time steps vary by up to ${(100 * worst).toFixed(2)} % of the mean step (worst at line ${worstLine}); results assume even sampling`,
+        });
+      }
+      sampleRateHz = 1 / meanStep;
+    }
+    return {
+      sampleCount: this.count,
+      channels: this.stores.flatMap((store, c) => (c === this.timeColumn ? [] : [store.subarray(0, this.count)])),
+      timeStartS: this.timeColumn !== null && this.count > 0 ? this.timeStart : null,
+      sampleRateHz,
+      warnings,
+    };
+  }
+}

@@ -1,0 +1,210 @@
+import { CaptureRejection } from "./rejection";
+import { quoteCell } from "./number-syntax";
+import type { ColumnSink } from "./column-sink";
+
+/** Exact powers of ten: m·10^e and m/10^e are correctly rounded for m < 2^53, |e| ≤ 22. */
+const POW10 = Array.from({ length: 23 }, (_, e) => Number(`1e${e}`));
+const MAX_EXACT_DIGITS = 15;
+const MAX_LINE_BYTES = 1 << 20;
+
+const NL = 10;
+const CR = 13;
+const SPACE = 32;
+const TAB = 9;
+const QUOTE = 34;
+
+export interface BodyParser {
+  push(chunk: Uint8Array): void;
+  finish(): void;
+}
+
+/**
+ * Byte-level parser for the numeric body. It accepts exactly the syntax of `isNumericCell`
+ * and yields the same doubles as `Number()` (Clinger's exact case, else it defers to Number).
+ */
+export function createFastBodyParser(
+  sink: ColumnSink,
+  headers: readonly string[],
+  delimiterText: string,
+  decimal: "." | ",",
+  firstLine: number,
+): BodyParser {
+  const delimiter = delimiterText.charCodeAt(0);
+  const decimalByte = decimal.charCodeAt(0);
+  const skipsTab = delimiter !== TAB;
+  const width = headers.length;
+  const row = new Float64Array(width);
+  const decoder = new TextDecoder();
+  let line = firstLine - 1;
+  let carry: Uint8Array | null = null;
+
+  const columnName = (index: number): string => headers[index] ?? `#${index + 1}`;
+
+  function reject(buf: Uint8Array, from: number, to: number, column: number): never {
+    let end = from;
+    while (end < to && buf[end] !== delimiter && buf[end] !== NL && buf[end] !== CR) end++;
+    const cell = decoder.decode(buf.subarray(from, end)).trim();
+    if (column >= width) {
+      throw new CaptureRejection("unexpected-field", `Value ${quoteCell(cell)} beyond the last column of the header`, {
+        line,
+        column: `#${column + 1}`,
+      });
+    }
+    throw new CaptureRejection("non-numeric", `Not a number: ${quoteCell(cell)}`, { line, column: columnName(column) });
+  }
+
+  function slowValue(buf: Uint8Array, from: number, to: number): number {
+    const text = decoder.decode(buf.subarray(from, to));
+    return Number(decimal === "," ? text.replace(",", ".") : text);
+  }
+
+  /** Parses whole lines in buf[from, to); the last one may lack its newline. */
+  function parseRange(buf: Uint8Array, from: number, to: number): void {
+    let i = from;
+    while (i < to) {
+      line++;
+      let column = 0;
+      let filled = 0;
+      for (;;) {
+        let c = buf[i];
+        while ((c === SPACE || (c === TAB && skipsTab)) && i < to) c = buf[++i];
+        const quoted = c === QUOTE;
+        if (quoted) c = buf[++i];
+        const start = i;
+        if (i >= to || c === delimiter || c === NL || c === CR || (quoted && c === QUOTE)) {
+          if (column < width) row[column] = Number.NaN;
+          if (quoted) c = buf[++i];
+        } else {
+          let negative = false;
+          if (c === 45) {
+            negative = true;
+            c = buf[++i];
+          } else if (c === 43) {
+            c = buf[++i];
+          }
+          let mantissa = 0;
+          let digits = 0;
+          let exponent = 0;
+          let seen = false;
+          let exact = true;
+          while (c !== undefined && c >= 48 && c <= 57) {
+            seen = true;
+            if (mantissa !== 0 || c !== 48) {
+              if (digits < MAX_EXACT_DIGITS) {
+                mantissa = mantissa * 10 + (c - 48);
+                digits++;
+              } else {
+                exact = false;
+              }
+            }
+            c = buf[++i];
+          }
+          if (c === decimalByte) {
+            c = buf[++i];
+            while (c !== undefined && c >= 48 && c <= 57) {
+              seen = true;
+              if (mantissa === 0 && c === 48) {
+                exponent--;
+              } else if (digits < MAX_EXACT_DIGITS) {
+                mantissa = mantissa * 10 + (c - 48);
+                digits++;
+                exponent--;
+              } else {
+                exact = false;
+              }
+              c = buf[++i];
+            }
+          }
+          if (!seen || i > to) reject(buf, start, to, column);
+          if (c === 101 || c === 69) {
+            c = buf[++i];
+            let expNegative = false;
+            if (c === 45) {
+              expNegative = true;
+              c = buf[++i];
+            } else if (c === 43) {
+              c = buf[++i];
+            }
+            let expValue = 0;
+            let expDigits = 0;
+            while (c !== undefined && c >= 48 && c <= 57 && i < to) {
+              if (expValue < 100000) expValue = expValue * 10 + (c - 48);
+              expDigits++;
+              c = buf[++i];
+            }
+            if (expDigits === 0) reject(buf, start, to, column);
+            exponent += expNegative ? -expValue : expValue;
+          }
+          const end = i;
+          if (quoted) {
+            if (c !== QUOTE) reject(buf, start, to, column);
+            c = buf[++i];
+          }
+          while ((c === SPACE || (c === TAB && skipsTab)) && i < to) c = buf[++i];
+          if (i < to && c !== delimiter && c !== NL && c !== CR) reject(buf, start, to, column);
+          if (column >= width) reject(buf, start, to, column);
+          let value: number;
+          if (!exact || exponent > 22 || exponent < -22) {
+            value = slowValue(buf, start, end);
+          } else {
+            value = exponent >= 0 ? mantissa * (POW10[exponent] as number) : mantissa / (POW10[-exponent] as number);
+            if (negative) value = -value;
+          }
+          row[column] = value;
+          filled++;
+        }
+        if (i < to && c === delimiter) {
+          i++;
+          column++;
+          continue;
+        }
+        break;
+      }
+      // End of line: step over CR/LF; any other byte here was rejected above.
+      while (i < to && buf[i] !== NL) i++;
+      i++;
+      if (filled === 0) continue;
+      for (let rest = column + 1; rest < width; rest++) row[rest] = Number.NaN;
+      sink.accept(row, line);
+    }
+  }
+
+  return {
+    push(chunk: Uint8Array): void {
+      let start = 0;
+      if (carry) {
+        const newline = chunk.indexOf(NL);
+        if (newline < 0) {
+          if (carry.length + chunk.length > MAX_LINE_BYTES) {
+            throw new CaptureRejection("line-too-long", "A line is longer than 1 MiB: not a sample table", { line: line + 1 });
+          }
+          const joined = new Uint8Array(carry.length + chunk.length);
+          joined.set(carry);
+          joined.set(chunk, carry.length);
+          carry = joined;
+          return;
+        }
+        const joined = new Uint8Array(carry.length + newline + 1);
+        joined.set(carry);
+        joined.set(chunk.subarray(0, newline + 1), carry.length);
+        carry = null;
+        parseRange(joined, 0, joined.length);
+        start = newline + 1;
+      }
+      const lastNewline = chunk.lastIndexOf(NL);
+      if (lastNewline < start) {
+        carry = chunk.slice(start);
+        return;
+      }
+      parseRange(chunk, start, lastNewline + 1);
+      if (lastNewline + 1 < chunk.length) carry = chunk.slice(lastNewline + 1);
+    },
+    finish(): void {
+      if (carry) {
+        const rest = carry;
+        carry = null;
+        parseRange(rest, 0, rest.length);
+      }
+    },
+  };
+}
