@@ -91,13 +91,26 @@ tcp_open() {
   (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null
 }
 
+# proc_alive PID: PID is a running process. A zombie does not count: on this
+# kind of machine PID 1 reaps orphans only after a second or two.
+proc_alive() {
+  local state
+  [[ -n "$1" && -r "/proc/$1/stat" ]] || return 1
+  state="$(sed 's/.*) //' "/proc/$1/stat" 2>/dev/null | cut -d' ' -f1)" || return 1
+  [[ -n "$state" && "$state" != Z && "$state" != X ]]
+}
+
+# proc_exists PID: PID is in the process table (running or not yet reaped).
+proc_exists() {
+  kill -0 "$1" 2>/dev/null
+}
+
 # pid_alive PIDFILE: the pid in PIDFILE is a running process.
 pid_alive() {
   local pidfile="$1" pid
   [[ -s "$pidfile" ]] || return 1
   pid="$(tr -dc '0-9' <"$pidfile")"
-  [[ -n "$pid" ]] || return 1
-  kill -0 "$pid" 2>/dev/null
+  proc_alive "$pid"
 }
 
 read_pid() {

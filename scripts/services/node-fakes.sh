@@ -33,14 +33,28 @@ node_fake_start() {
   local pidfile="$RUN_DIR/$name.pid" log="$LOG_DIR/$name.log"
   need_node_modules
   if pid_alive "$pidfile"; then
-    if wait_for "$START_TIMEOUT_DEFAULT" "$probe"; then
-      say "$name: already running on 127.0.0.1:$port (pid $(read_pid "$pidfile"))"
-      return 0
+    local running_port
+    running_port="$(cat "$RUN_DIR/$name.port" 2>/dev/null || true)"
+    if [[ -n "$running_port" && "$running_port" != "$port" ]]; then
+      warn "$name: already running from this checkout on port $running_port (pid $(read_pid "$pidfile")), not $port; stop it first"
+      return 1
     fi
-    fail_start "$name" "$log"
-    return 1
+    # Ours and alive: it answers, or is still starting, or is stuck.
+    local deadline=$((SECONDS + START_TIMEOUT_DEFAULT))
+    while ((SECONDS < deadline)) && pid_alive "$pidfile"; do
+      if "$probe"; then
+        say "$name: already running on 127.0.0.1:$port (pid $(read_pid "$pidfile"))"
+        return 0
+      fi
+      sleep 0.25
+    done
+    if pid_alive "$pidfile"; then
+      warn "$name: pid $(read_pid "$pidfile") is running but does not answer on port $port; try 'scripts/services.sh restart $name'"
+      fail_start "$name" "$log"
+      return 1
+    fi
   fi
-  rm -f "$pidfile"
+  rm -f "$pidfile" "$RUN_DIR/$name.port"
   if "$probe"; then
     say "$name: already answering on 127.0.0.1:$port (pid $(listener_pid "$port"), no pid file: not started by this checkout?)"
     return 0
@@ -54,6 +68,7 @@ node_fake_start() {
   # pid == process group id, and stop can signal the whole group.
   (cd "$PROJECT_ROOT" && exec setsid nohup "$@" >>"$log" 2>&1 </dev/null) &
   printf '%s\n' "$!" >"$pidfile"
+  printf '%s\n' "$port" >"$RUN_DIR/$name.port"
   local deadline=$((SECONDS + START_TIMEOUT_DEFAULT))
   while ((SECONDS < deadline)); do
     if "$probe"; then
@@ -62,7 +77,7 @@ node_fake_start() {
       return 0
     fi
     if ! pid_alive "$pidfile"; then
-      rm -f "$pidfile"
+      rm -f "$pidfile" "$RUN_DIR/$name.port"
       fail_start "$name" "$log"
       return 1
     fi
@@ -88,7 +103,7 @@ node_fake_stop() {
     # No pid file (or a stale one): look for our own process on the port.
     pid="$(listener_pid "$port")"
     if [[ -z "$pid" ]] || ! node_fake_owns "$pid" "$marker"; then
-      rm -f "$pidfile"
+      rm -f "$pidfile" "$RUN_DIR/$name.port"
       if [[ -n "$pid" ]]; then
         warn "$name: port $port is held by pid $pid, which is not ours; left alone"
       else
@@ -103,13 +118,13 @@ node_fake_stop() {
   else
     kill -TERM "$pid" 2>/dev/null || true
   fi
-  if ! wait_gone 10 kill -0 "$pid"; then
+  if ! wait_gone 10 proc_alive "$pid"; then
     warn "$name: pid $pid ignored SIGTERM, sending SIGKILL"
     kill -KILL -- "-$pid" 2>/dev/null || kill -KILL "$pid" 2>/dev/null || true
-    wait_gone 5 kill -0 "$pid" || true
+    wait_gone 5 proc_alive "$pid" || true
   fi
   wait_gone 10 tcp_open "$port" || warn "$name: port $port still open"
-  rm -f "$pidfile"
+  rm -f "$pidfile" "$RUN_DIR/$name.port"
 }
 
 s3_start() {

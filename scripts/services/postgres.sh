@@ -75,11 +75,26 @@ pg_probe() {
   pg_isready -q -h 127.0.0.1 -p "$EMFOLIO_PG_PORT" -t 2
 }
 
+# The postmaster of this cluster is running (a crashed one that is still a
+# zombie, or whose pid file is stale, is not).
 pg_running() {
-  local bin
-  [[ -f "$PG_DATA/PG_VERSION" ]] || return 1
-  bin="$(pg_bin_dir)" || return 1
-  as_postgres "$bin/pg_ctl" -D "$PG_DATA" status >/dev/null 2>&1
+  local pid
+  [[ -f "$PG_DATA/PG_VERSION" && -f "$PG_DATA/postmaster.pid" ]] || return 1
+  pid="$(head -n 1 "$PG_DATA/postmaster.pid" | tr -dc '0-9')"
+  proc_alive "$pid"
+}
+
+# After a crash, wait for the dead postmaster and its children to be reaped so
+# that the new one's lock-file and shared-memory checks pass.
+pg_wait_reaped() {
+  local pid
+  [[ -f "$PG_DATA/postmaster.pid" ]] || return 0
+  pid="$(head -n 1 "$PG_DATA/postmaster.pid" | tr -dc '0-9')"
+  [[ -n "$pid" ]] || return 0
+  if proc_exists "$pid"; then
+    say "postgres: waiting for the previous postmaster (pid $pid) to be reaped"
+    wait_gone 20 proc_exists "$pid" || true
+  fi
 }
 
 pg_initdb() {
@@ -121,6 +136,12 @@ pg_provision() {
   done
 }
 
+# shellcheck disable=SC2094 # pg_ctl messages and the server log share one file
+pg_ctl_start() {
+  (cd / && as_postgres "$1/pg_ctl" -D "$PG_DATA" -l "$PG_LOG_REAL" -w -t "$START_TIMEOUT_PG" \
+    -o "-h 127.0.0.1 -p $EMFOLIO_PG_PORT -k $PG_SOCKET_DIR" start) >>"$PG_LOG_REAL" 2>&1
+}
+
 pg_start() {
   pg_ensure_installed
   pg_resolve_paths
@@ -148,12 +169,17 @@ pg_start() {
   if [[ ! -f "$PG_DATA/PG_VERSION" ]]; then
     pg_initdb "$bin"
   fi
+  pg_wait_reaped
   # A crash can leave a stale postmaster.pid; pg_ctl handles that itself.
   say "postgres: starting on 127.0.0.1:$EMFOLIO_PG_PORT"
-  if ! (cd / && as_postgres "$bin/pg_ctl" -D "$PG_DATA" -l "$PG_LOG_REAL" -w -t "$START_TIMEOUT_PG" \
-    -o "-h 127.0.0.1 -p $EMFOLIO_PG_PORT -k $PG_SOCKET_DIR" start) >/dev/null; then
-    fail_start postgres "$PG_LOG"
-    return 1
+  if ! pg_ctl_start "$bin"; then
+    # After a crash the old backends may still hold the shared memory for a moment.
+    say "postgres: first start attempt failed, retrying in 3 s"
+    sleep 3
+    if ! pg_ctl_start "$bin"; then
+      fail_start postgres "$PG_LOG"
+      return 1
+    fi
   fi
   if ! wait_for "$START_TIMEOUT_PG" pg_probe; then
     fail_start postgres "$PG_LOG"

@@ -28,6 +28,8 @@ export interface StoredMail {
   from: string;
   /** Addresses from the To header (envelope recipients when it has none). */
   to: string[];
+  /** The To header as text, with display names. */
+  toText: string;
   cc: string[];
   subject: string;
   text: string | null;
@@ -96,6 +98,7 @@ async function store(raw: Buffer, envelope: StoredMail["envelope"]): Promise<str
     receivedAt: receivedAt.toISOString(),
     from: parsed.from?.text ?? envelope.from ?? "",
     to: to.length > 0 ? to : envelope.to,
+    toText: (Array.isArray(parsed.to) ? parsed.to.map((a) => a.text).join(", ") : parsed.to?.text) ?? envelope.to.join(", "),
     cc: addresses(parsed.cc),
     subject: parsed.subject ?? "",
     text: parsed.text ?? null,
