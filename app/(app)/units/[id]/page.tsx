@@ -1,0 +1,23 @@
+import { notFound } from "next/navigation";
+import { PageHeader } from "@/components/shell/page-header";
+import { StatusTag } from "@/components/ui/status-tag";
+import { getUnitView } from "@/lib/dal/units";
+
+export default async function UnitPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const view = await getUnitView(id);
+  // Another organisation's unit is indistinguishable from a missing one.
+  if (!view) notFound();
+  const { unit, rating, owner } = view;
+  return (
+    <>
+      <PageHeader title={`Unit ${unit.serial}`} lead={`${rating.modelCode} · ${rating.title} · ${owner}`} />
+      <dl className="grid grid-cols-2 gap-4 rounded-lg bg-white p-5 text-sm shadow-sm ring-1 ring-ink-200 md:grid-cols-4">
+        <div><dt className="text-ink-600">Latest verdict</dt><dd className="mt-1"><StatusTag status={unit.latestOverall} /></dd></div>
+        <div><dt className="text-ink-600">Disposition</dt><dd className="mt-1 font-semibold">{unit.disposition}</dd></div>
+        <div><dt className="text-ink-600">Registered</dt><dd className="mt-1">{unit.createdAt.toISOString().slice(0, 10)}</dd></div>
+        <div><dt className="text-ink-600">Model</dt><dd className="mt-1 font-mono">{rating.modelCode}</dd></div>
+      </dl>
+    </>
+  );
+}

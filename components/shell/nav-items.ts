@@ -1,0 +1,25 @@
+import type { Role } from "@/db/schema";
+
+export type NavItem = { href: string; label: string };
+
+const ITEMS: Record<string, NavItem> = {
+  home: { href: "/", label: "Overview" },
+  units: { href: "/units", label: "Units" },
+  upload: { href: "/upload", label: "New capture" },
+  review: { href: "/review", label: "Review queue" },
+  trends: { href: "/trends", label: "Trends" },
+  stations: { href: "/stations", label: "Benches" },
+  people: { href: "/admin/people", label: "People" },
+  mailbox: { href: "/admin/mailbox", label: "Outbox" },
+};
+
+const BY_ROLE: Record<Role, (keyof typeof ITEMS)[]> = {
+  admin: ["home", "units", "upload", "review", "trends", "stations", "people", "mailbox"],
+  operator: ["home", "upload", "units", "stations"],
+  qa: ["home", "review", "units", "trends"],
+  manufacturer: ["home", "units"],
+};
+
+export function navFor(role: Role): NavItem[] {
+  return BY_ROLE[role].map((k) => ITEMS[k]).filter((i): i is NavItem => Boolean(i));
+}

@@ -1,0 +1,63 @@
+import { and, asc, desc, eq, ilike, sql, type SQL } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { captures, organisations, ratings, units, type Unit } from "@/db/schema";
+import { unitScopeWhere, type Scope } from "./scope";
+
+export type UnitListFilter = { search?: string; overall?: Unit["latestOverall"] | "untested"; limit?: number; offset?: number };
+
+export async function listUnits(scope: Scope, filter: UnitListFilter = {}) {
+  const where: SQL[] = [unitScopeWhere(scope)];
+  if (filter.search) where.push(ilike(units.serial, `%${filter.search.replace(/[%_\\]/g, "\\$&")}%`));
+  if (filter.overall === "untested") where.push(sql`${units.latestOverall} is null`);
+  else if (filter.overall) where.push(eq(units.latestOverall, filter.overall));
+  return getDb()
+    .select({
+      id: units.id, serial: units.serial, disposition: units.disposition, latestOverall: units.latestOverall,
+      latestCaptureAt: units.latestCaptureAt, ratingTitle: ratings.title, modelCode: ratings.modelCode,
+      owner: organisations.name,
+      captureCount: sql<number>`(select count(*) from ${captures} where ${captures.unitId} = ${units.id})`.mapWith(Number),
+    })
+    .from(units)
+    .innerJoin(ratings, eq(ratings.id, units.ratingId))
+    .innerJoin(organisations, eq(organisations.id, units.organisationId))
+    .where(and(...where))
+    .orderBy(desc(sql`coalesce(${units.latestCaptureAt}, ${units.createdAt})`), asc(units.serial))
+    .limit(filter.limit ?? 100)
+    .offset(filter.offset ?? 0);
+}
+
+export async function getUnit(scope: Scope, unitId: string) {
+  const rows = await getDb()
+    .select({ unit: units, rating: ratings, owner: organisations.name })
+    .from(units)
+    .innerJoin(ratings, eq(ratings.id, units.ratingId))
+    .innerJoin(organisations, eq(organisations.id, units.organisationId))
+    .where(and(unitScopeWhere(scope), eq(units.id, unitId)))
+    .limit(1);
+  return rows[0];
+}
+
+export async function getUnitBySerial(scope: Scope, serial: string) {
+  const rows = await getDb()
+    .select({ unit: units, rating: ratings, owner: organisations.name })
+    .from(units)
+    .innerJoin(ratings, eq(ratings.id, units.ratingId))
+    .innerJoin(organisations, eq(organisations.id, units.organisationId))
+    .where(and(unitScopeWhere(scope), eq(units.serial, serial)))
+    .limit(1);
+  return rows[0];
+}
+
+export async function countUnitsByOverall(scope: Scope) {
+  const rows = await getDb()
+    .select({ overall: units.latestOverall, n: sql<number>`count(*)`.mapWith(Number) })
+    .from(units)
+    .where(unitScopeWhere(scope))
+    .groupBy(units.latestOverall);
+  const counts = { pass: 0, marginal: 0, fail: 0, "not-applicable": 0, untested: 0, total: 0 };
+  for (const r of rows) {
+    counts[r.overall ?? "untested"] += r.n;
+    counts.total += r.n;
+  }
+  return counts;
+}

@@ -1,0 +1,34 @@
+import "server-only";
+import { z } from "zod";
+import { countUnitsByOverall, getUnit, listUnits } from "@/db/queries/units";
+import { requireUser } from "@/lib/auth/guards";
+import { scopeFor } from "./scope";
+
+export const unitListQuerySchema = z.object({
+  q: z.string().trim().max(64).optional(),
+  overall: z.enum(["pass", "marginal", "fail", "not-applicable", "untested"]).optional(),
+  page: z.coerce.number().int().min(1).max(10_000).default(1),
+});
+
+export type UnitListQuery = z.infer<typeof unitListQuerySchema>;
+const PAGE_SIZE = 50;
+
+export async function getUnitListView(query: UnitListQuery) {
+  const user = await requireUser();
+  const rows = await listUnits(scopeFor(user), {
+    search: query.q || undefined, overall: query.overall, limit: PAGE_SIZE + 1, offset: (query.page - 1) * PAGE_SIZE,
+  });
+  return { rows: rows.slice(0, PAGE_SIZE), hasMore: rows.length > PAGE_SIZE, page: query.page, showOwner: user.role !== "manufacturer" };
+}
+
+export async function getUnitView(unitId: string) {
+  const user = await requireUser();
+  if (!z.uuid().safeParse(unitId).success) return null;
+  const found = await getUnit(scopeFor(user), unitId);
+  return found ?? null;
+}
+
+export async function getHomeCounts() {
+  const user = await requireUser();
+  return countUnitsByOverall(scopeFor(user));
+}

@@ -1,0 +1,77 @@
+#!/usr/bin/env bash
+# The whole test suite: type-check, lint, unit, integration against the real services, end-to-end in Chromium.
+# Uses its own database (emfolio_test), Redis db 1 with its own queue prefix, bucket emfolio-test and port 3100,
+# so a running demo is not touched. Services this script had to start are stopped again at the end.
+set -euo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/lib-setup.sh"
+
+RESULTS=.data/test-results
+E2E_PORT="${EMFOLIO_E2E_PORT:-3100}"
+
+step "Debian packages"
+bash scripts/services/ensure-packages.sh
+ensure_node_modules
+
+step "local services"
+already_up=()
+for name in postgres redis s3 smtp; do
+  if bash scripts/services.sh status "$name" >/dev/null 2>&1; then already_up+=("$name"); fi
+done
+bash scripts/services.sh start
+started_here=()
+for name in postgres redis s3 smtp; do
+  [[ " ${already_up[*]} " == *" $name "* ]] || started_here+=("$name")
+done
+
+pids=()
+cleanup() {
+  for pid in "${pids[@]}"; do kill -TERM "$pid" 2>/dev/null || true; done
+  for pid in "${pids[@]}"; do wait "$pid" 2>/dev/null || true; done
+  if ((${#started_here[@]} > 0)); then bash scripts/services.sh stop "${started_here[@]}" >/dev/null 2>&1 || true; fi
+}
+trap cleanup EXIT
+
+mkdir -p "$RESULTS" .data/log
+rm -f "$RESULTS"/*.json
+{
+  bash scripts/services.sh env | sed -nE 's/^TEST_(DATABASE_URL|REDIS_URL)=/\1=/p; s/^TEST_S3_BUCKET=/S3_BUCKET=/p'
+  bash scripts/services.sh env | grep -E '^(S3_ENDPOINT|S3_REGION|S3_ACCESS_KEY_ID|S3_SECRET_ACCESS_KEY|S3_FORCE_PATH_STYLE|SMTP_HOST|SMTP_PORT)='
+  echo "MAIL_DIR=.data/mail"
+  echo "QUEUE_PREFIX=emfolio-test"
+  echo "NEXTAUTH_URL=http://127.0.0.1:$E2E_PORT"
+  echo "NEXTAUTH_SECRET=test-secret-not-for-production-0123456789abcdef"
+  echo "SIGN_IN_MAX_ATTEMPTS=8"
+} >.data/env.test
+load_env_file .data/env.test
+export E2E_BASE_URL="http://127.0.0.1:$E2E_PORT"
+
+step "fresh test database"
+node_modules/.bin/tsx scripts/reset-test-db.ts
+node_modules/.bin/tsx scripts/migrate.ts
+node_modules/.bin/tsx scripts/seed.ts
+
+step "type-check and lint"
+node_modules/.bin/tsc --noEmit
+node_modules/.bin/eslint . --max-warnings 0
+
+status=0
+step "unit tests"
+node_modules/.bin/vitest run --project unit --reporter=default --reporter=json --outputFile.json="$RESULTS/unit.json" || status=1
+step "integration tests"
+node_modules/.bin/vitest run --project integration --reporter=default --reporter=json --outputFile.json="$RESULTS/integration.json" || status=1
+
+step "end-to-end tests (Chromium)"
+export EMFOLIO_DIST_DIR=.next-test
+node_modules/.bin/next build >.data/log/test-build.log 2>&1 || { tail -50 .data/log/test-build.log; exit 1; }
+node_modules/.bin/next start -H 127.0.0.1 -p "$E2E_PORT" >.data/log/test-web.log 2>&1 &
+pids+=($!)
+node_modules/.bin/tsx worker/index.ts >.data/log/test-worker.log 2>&1 &
+pids+=($!)
+for _ in $(seq 1 60); do
+  curl -fsS -o /dev/null "$E2E_BASE_URL/sign-in" && break
+  sleep 1
+done
+PLAYWRIGHT_JSON_OUTPUT_NAME="$RESULTS/e2e.json" node_modules/.bin/playwright test --reporter=list,json || status=1
+
+node_modules/.bin/tsx scripts/test-summary.ts "$RESULTS"/*.json || status=1
+exit "$status"

@@ -1,0 +1,40 @@
+#!/usr/bin/env bash
+# One command for a fresh Debian machine: packages, services, migrations, demo data, build, serve.
+#   bash scripts/up.sh            serve in the foreground (Ctrl-C stops the web app and the worker)
+#   bash scripts/up.sh --detach   serve in the background (logs in .data/log/, stop with scripts/down.sh)
+set -euo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/lib-setup.sh"
+
+detach=false
+[[ "${1:-}" == "--detach" ]] && detach=true
+
+step "Debian packages"
+bash scripts/services/ensure-packages.sh
+ensure_node_modules
+step "local services"
+bash scripts/services.sh start
+ensure_dotenv
+load_env_file .env
+step "migrations and demo data"
+node_modules/.bin/tsx scripts/migrate.ts
+node_modules/.bin/tsx scripts/seed.ts
+step "build"
+node_modules/.bin/next build
+mkdir -p .data/log .data/run
+
+bash scripts/down.sh --quiet
+node_modules/.bin/tsx worker/index.ts >>.data/log/worker.log 2>&1 &
+echo $! >.data/run/worker.pid
+if $detach; then
+  nohup node_modules/.bin/next start -H 127.0.0.1 -p 3000 >>.data/log/web.log 2>&1 &
+  echo $! >.data/run/web.pid
+  for _ in $(seq 1 60); do
+    curl -fsS -o /dev/null http://127.0.0.1:3000/sign-in && break
+    sleep 1
+  done
+  echo "Emfolio is up on http://127.0.0.1:3000 (worker and web in the background; bash scripts/down.sh stops them)"
+else
+  trap 'bash scripts/down.sh --quiet' EXIT
+  echo "Emfolio on http://127.0.0.1:3000 — demo accounts in README.md. Ctrl-C stops the web app and the worker."
+  node_modules/.bin/next start -H 127.0.0.1 -p 3000
+fi
