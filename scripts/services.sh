@@ -123,6 +123,14 @@ main() {
   local n
   for n in "${names[@]}"; do svc_fn "$n" start >/dev/null; done
   case "$action" in
+    start | stop | restart)
+      # One start/stop at a time per checkout (e.g. up.sh and test.sh at once).
+      ensure_layout
+      exec 9>"$RUN_DIR/services.lock"
+      flock -w 180 9 || die "another scripts/services.sh $action has held $(relpath "$RUN_DIR")/services.lock for 3 minutes"
+      ;;
+  esac
+  case "$action" in
     start) cmd_start "${names[@]}" ;;
     stop) cmd_stop "${names[@]}" ;;
     status) cmd_status "${names[@]}" ;;

@@ -64,9 +64,10 @@ node_fake_start() {
   fi
   say "$name: starting on 127.0.0.1:$port"
   printf '\n==== %s start %s ====\n' "$name" "$(date -u +%Y-%m-%dT%H:%M:%SZ)" >>"$log"
+  # fd 9 is the services.lock: the daemon must not keep it.
   # Not a process-group leader here (no job control), so setsid keeps the pid:
   # pid == process group id, and stop can signal the whole group.
-  (cd "$PROJECT_ROOT" && exec setsid nohup "$@" >>"$log" 2>&1 </dev/null) &
+  (cd "$PROJECT_ROOT" && exec setsid nohup "$@" >>"$log" 2>&1 </dev/null 9>&-) &
   printf '%s\n' "$!" >"$pidfile"
   printf '%s\n' "$port" >"$RUN_DIR/$name.port"
   local deadline=$((SECONDS + START_TIMEOUT_DEFAULT))

@@ -139,7 +139,7 @@ pg_provision() {
 # shellcheck disable=SC2094 # pg_ctl messages and the server log share one file
 pg_ctl_start() {
   (cd / && as_postgres "$1/pg_ctl" -D "$PG_DATA" -l "$PG_LOG_REAL" -w -t "$START_TIMEOUT_PG" \
-    -o "-h 127.0.0.1 -p $EMFOLIO_PG_PORT -k $PG_SOCKET_DIR" start) >>"$PG_LOG_REAL" 2>&1
+    -o "-h 127.0.0.1 -p $EMFOLIO_PG_PORT -k $PG_SOCKET_DIR" start) >>"$PG_LOG_REAL" 2>&1 9>&-
 }
 
 pg_start() {

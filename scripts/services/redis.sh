@@ -32,7 +32,7 @@ redis_start() {
     --bind 127.0.0.1 --port "$EMFOLIO_REDIS_PORT" --protected-mode yes \
     --dir "$REDIS_DIR" --appendonly yes --appendfsync everysec --save '' \
     --daemonize yes --pidfile "$REDIS_PID" --logfile "$REDIS_LOG" \
-    --maxmemory-policy noeviction >>"$REDIS_LOG" 2>&1; then
+    --maxmemory-policy noeviction >>"$REDIS_LOG" 2>&1 9>&-; then
     fail_start redis "$REDIS_LOG"
     return 1
   fi
