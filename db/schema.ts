@@ -214,3 +214,20 @@ export type Capture = typeof captures.$inferSelect;
 export type CaptureState = (typeof captureState.enumValues)[number];
 export type Analysis = typeof analyses.$inferSelect;
 export type UnitEvent = typeof unitEvents.$inferSelect;
+
+/** One-time links for invitations and password resets; only the sha256 of the token is stored. */
+export const passwordTokens = pgTable(
+  "password_tokens",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    userId: uuid("user_id").notNull().references(() => users.id),
+    purpose: text("purpose", { enum: ["invite", "reset"] }).notNull(),
+    tokenHash: text("token_hash").notNull().unique(),
+    expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
+    usedAt: timestamp("used_at", { withTimezone: true }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("password_tokens_user_idx").on(t.userId)],
+);
+
+export type PasswordToken = typeof passwordTokens.$inferSelect;
