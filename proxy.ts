@@ -21,5 +21,5 @@ export async function proxy(request: NextRequest) {
 
 export const config = {
   // Pages only: API routes answer 401/403 JSON themselves; sign-in, static files and fonts stay public.
-  matcher: ["/((?!api|_next|sign-in|access-denied|favicon.ico|fonts|.*\\.(?:png|svg|ico|woff2|txt)$).*)"],
+  matcher: ["/((?!api|_next|sign-in|forgot-password|set-password|access-denied|favicon.ico|fonts|.*\\.(?:png|svg|ico|woff2|txt)$).*)"],
 };

@@ -1,4 +1,4 @@
-import { and, asc, eq, isNull, sql } from "drizzle-orm";
+import { and, asc, eq, isNull, or, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { organisations, users, type Role } from "@/db/schema";
 
@@ -20,11 +20,31 @@ export async function findActiveUserByEmail(email: string): Promise<SessionUserR
   return rows[0];
 }
 
-/** Every account, for the lab manager's user list. */
-export async function listAllUsers() {
+/** Accounts a lab manager administers: the lab's own staff and every client organisation's users. */
+export async function listUsersForAdmin(labId: string) {
   return getDb()
     .select({ id: users.id, email: users.email, name: users.name, role: users.role, organisation: organisations.name, disabledAt: users.disabledAt })
     .from(users)
     .innerJoin(organisations, eq(organisations.id, users.organisationId))
+    .where(or(eq(organisations.id, labId), eq(organisations.kind, "manufacturer")))
     .orderBy(asc(organisations.name), asc(users.name));
+}
+
+export async function listOrganisations() {
+  return getDb().select().from(organisations).orderBy(asc(organisations.kind), asc(organisations.name));
+}
+
+export async function insertUser(values: { email: string; name: string; role: Role; organisationId: string; passwordHash: string }) {
+  const [row] = await getDb().insert(users).values({ ...values, email: values.email.toLowerCase() }).returning({ id: users.id });
+  return row;
+}
+
+export async function findUserIdByEmail(email: string) {
+  const rows = await getDb().select({ id: users.id, name: users.name }).from(users)
+    .where(and(eq(sql`lower(${users.email})`, email.toLowerCase()), isNull(users.disabledAt))).limit(1);
+  return rows[0];
+}
+
+export async function setUserDisabled(userId: string, disabled: boolean) {
+  await getDb().update(users).set({ disabledAt: disabled ? new Date() : null }).where(eq(users.id, userId));
 }

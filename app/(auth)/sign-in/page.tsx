@@ -1,13 +1,15 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { redirect } from "next/navigation";
+import { Notice } from "@/components/ui/notice";
 import { SafetyCaution } from "@/components/shell/safety-caution";
 import { getSessionUser } from "@/lib/auth/guards";
 import { SignInForm } from "./_components/sign-in-form";
 
 export const metadata: Metadata = { title: "Sign in" };
 
-export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string }> }) {
-  const { next } = await searchParams;
+export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string; password?: string }> }) {
+  const { next, password } = await searchParams;
   const target = next && next.startsWith("/") && !next.startsWith("//") ? next : "/";
   if (await getSessionUser()) redirect(target);
   return (
@@ -20,7 +22,9 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
       </div>
       <div className="rounded-lg bg-white p-6 shadow-sm ring-1 ring-ink-200">
         <h1 className="mb-4 text-lg font-semibold">Sign in</h1>
+        {password === "set" ? <div className="mb-4"><Notice kind="done">Password saved. Sign in with it now.</Notice></div> : null}
         <SignInForm target={target} />
+        <p className="mt-4 text-sm"><Link href="/forgot-password">Forgot your password?</Link></p>
       </div>
       <SafetyCaution compact />
     </main>

@@ -1,0 +1,34 @@
+import { PageHeader } from "@/components/shell/page-header";
+import { EmptyState } from "@/components/ui/empty-state";
+import { requireRole } from "@/lib/auth/guards";
+import { listOutbox, outboxEnabled } from "@/lib/server/outbox";
+
+export const metadata = { title: "Outbox" };
+
+export default async function MailboxPage() {
+  await requireRole("admin");
+  if (!outboxEnabled()) {
+    return <EmptyState title="No local outbox">MAIL_DIR is not set: mail goes to the configured SMTP server only.</EmptyState>;
+  }
+  const mails = await listOutbox();
+  return (
+    <>
+      <PageHeader title="Outbox" lead="Messages the app sent, as the local mail catcher stored them. For development and the demo only." />
+      {mails.length === 0 ? <EmptyState title="Nothing sent yet">Invite someone or ask for a password reset to see a message here.</EmptyState> : (
+        <ul className="space-y-3">
+          {mails.map((m) => (
+            <li key={m.id}>
+              <details className="rounded-lg bg-white p-4 shadow-sm ring-1 ring-ink-200">
+                <summary className="cursor-pointer">
+                  <span className="font-semibold">{m.subject}</span>
+                  <span className="ml-2 text-sm text-ink-600">to {m.to.join(", ")} · {m.receivedAt.replace("T", " ").slice(0, 19)} UTC</span>
+                </summary>
+                <pre className="mt-3 whitespace-pre-wrap break-words text-sm">{m.text}</pre>
+              </details>
+            </li>
+          ))}
+        </ul>
+      )}
+    </>
+  );
+}

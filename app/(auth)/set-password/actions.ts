@@ -1,0 +1,23 @@
+"use server";
+
+import { redirect } from "next/navigation";
+import { z } from "zod";
+import { consumeTokenAndSetPassword } from "@/db/queries/password-tokens";
+import { hashPassword } from "@/lib/auth/password";
+import { hashToken } from "@/lib/auth/password-links";
+
+const setPasswordSchema = z
+  .object({
+    token: z.string().min(20).max(100),
+    password: z.string().min(10, "Use at least 10 characters.").max(200),
+    confirm: z.string(),
+  })
+  .refine((v) => v.password === v.confirm, { message: "The two passwords differ.", path: ["confirm"] });
+
+export async function setPassword(_prev: string, form: FormData): Promise<string> {
+  const parsed = setPasswordSchema.safeParse(Object.fromEntries(form));
+  if (!parsed.success) return parsed.error.issues[0]?.message ?? "Check the form.";
+  const done = await consumeTokenAndSetPassword(hashToken(parsed.data.token), await hashPassword(parsed.data.password));
+  if (!done) return "This link has expired or was already used. Ask for a new one.";
+  redirect("/sign-in?password=set");
+}
