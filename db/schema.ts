@@ -131,10 +131,14 @@ export const captures = pgTable(
     sizeBytes: bigint("size_bytes", { mode: "number" }).notNull(),
     sha256: text("sha256").notNull(),
     multipartUploadId: text("multipart_upload_id"),
+    // ETag of the stored object when the upload was completed; the worker reads with If-Match on it.
+    objectEtag: text("object_etag"),
     state: captureState("state").notNull().default("uploading"),
     stateMessage: text("state_message"),
     progress: integer("progress").notNull().default(0),
     attempts: integer("attempts").notNull().default(0),
+    uploadedAt: timestamp("uploaded_at", { withTimezone: true }),
+    analysedAt: timestamp("analysed_at", { withTimezone: true }),
     createdAt: createdAt(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
   },
@@ -161,7 +165,10 @@ export const analyses = pgTable(
     worstThdPercent: doublePrecision("worst_thd_percent"),
     vufPercent: doublePrecision("vuf_percent"),
     keLineRmsPerKrpm: doublePrecision("ke_line_rms_per_krpm"),
+    // Min/max envelope per channel (computeWaveformEnvelope), a few thousand points at most.
     preview: jsonb("preview"),
+    // Harmonic magnitudes per channel: { channels: [{ id, orders[], rms[] }] }.
+    spectrum: jsonb("spectrum"),
     createdAt: createdAt(),
   },
   (t) => [

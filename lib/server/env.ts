@@ -26,6 +26,12 @@ export const envSchema = z.object({
   MAIL_DIR: z.preprocess(blankToUndefined, z.string().optional()),
   UPLOAD_MAX_BYTES: int(2 * 1024 * 1024 * 1024),
   WORKER_CONCURRENCY: int(1),
+  // How long a worker holds a job before another may take it over (stalled-job recovery), in ms.
+  WORKER_LOCK_MS: int(30_000),
+  // How often the worker looks for captures left queued or analysing without a live job, in s.
+  WORKER_SWEEP_INTERVAL_S: int(60),
+  // Tries per analysis job for infrastructure errors (bad input is never retried).
+  ANALYSIS_ATTEMPTS: int(5),
   SIGN_IN_MAX_ATTEMPTS: int(8),
   SIGN_IN_WINDOW_S: int(900),
 });
