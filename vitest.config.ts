@@ -1,7 +1,10 @@
 import { defineConfig } from "vitest/config";
 import path from "node:path";
 
-const alias = { "@": path.resolve(import.meta.dirname) };
+const alias = {
+  "@": path.resolve(import.meta.dirname),
+  "server-only": path.resolve(import.meta.dirname, "tests/support/server-only.ts"),
+};
 
 export default defineConfig({
   resolve: { alias },

@@ -4,12 +4,15 @@ import { DEMO_PASSWORD } from "@/db/seed-data";
 import { hashPassword } from "@/lib/auth/password";
 import { tolerancePresets } from "@/lib/analysis";
 
-// Each demo rating starts from the first shipped preset; a lab manager edits it per rating later.
-const defaultToleranceFor = () => {
-  const preset = tolerancePresets[0];
+// PM machines start from the back-EMF bench preset, alternators from the open-circuit waveform one;
+// a lab manager edits the copy per rating later.
+function defaultToleranceFor(nameplate: unknown) {
+  const isPm = typeof nameplate === "object" && nameplate !== null && "keLineRmsPerKrpm" in nameplate;
+  const wanted = isPm ? "pm-back-emf-bench" : "open-circuit-waveform";
+  const preset = tolerancePresets.find((p) => p.id === wanted) ?? tolerancePresets[0];
   if (!preset) throw new Error("no tolerance preset is shipped");
   return structuredClone(preset);
-};
+}
 
 try {
   const inserted = await insertDemoScenario(await hashPassword(DEMO_PASSWORD), defaultToleranceFor);

@@ -1,0 +1,60 @@
+import { expect, test } from "@playwright/test";
+import { ACCOUNTS, signIn } from "./support";
+
+test("each role signs in and sees its own navigation", async ({ page }) => {
+  const expected = {
+    admin: ["Overview", "Units", "New capture", "Review queue", "Trends", "Benches", "People", "Outbox"],
+    operator: ["Overview", "New capture", "Units", "Benches"],
+    qa: ["Overview", "Review queue", "Units", "Trends"],
+    kestrum: ["Overview", "Units"],
+  } as const;
+  for (const [who, links] of Object.entries(expected) as [keyof typeof expected, readonly string[]][]) {
+    await signIn(page, who);
+    const nav = page.getByRole("navigation", { name: "Main" });
+    await expect(nav.getByRole("link")).toHaveText(["Emfolio", ...links]);
+    await expect(page.getByRole("complementary", { name: "Safety caution" })).toBeVisible();
+    await page.getByRole("button", { name: "Sign out" }).click();
+    await expect(page).toHaveURL(/\/sign-in/);
+  }
+});
+
+test("a wrong password shows an error and stays signed out", async ({ page }) => {
+  await signIn(page, "qa", "definitely-wrong");
+  await expect(page.getByText("That email and password do not match an active account.")).toBeVisible();
+  await page.goto("/units");
+  await expect(page).toHaveURL(/\/sign-in\?next=%2Funits/);
+});
+
+test("a client cannot open lab pages", async ({ page }) => {
+  await signIn(page, "kestrum");
+  for (const path of ["/upload", "/review", "/admin/people", "/stations"]) {
+    const response = await page.goto(path);
+    expect(response?.status(), path).toBe(403);
+    await expect(page.getByRole("heading", { name: "Not open to your role" })).toBeVisible();
+  }
+});
+
+test("a client sees only its own units, and another organisation's unit id answers 404 on the page and the API", async ({ page }) => {
+  await signIn(page, "poldane");
+  await page.goto("/units?q=PX120");
+  const poldaneLink = page.getByRole("link", { name: /^PX120-/ }).first();
+  await expect(poldaneLink).toBeVisible();
+  const href = await poldaneLink.getAttribute("href");
+  await page.goto("/units?q=KG45");
+  await expect(page.getByText("No units match")).toBeVisible();
+  await page.getByRole("button", { name: "Sign out" }).click();
+
+  await signIn(page, "kestrum");
+  const unitId = href!.split("/").pop()!;
+  const pageResponse = await page.goto(`/units/${unitId}`);
+  expect(pageResponse?.status()).toBe(404);
+  const api = await page.request.get(`/api/units/${unitId}`);
+  expect(api.status()).toBe(404);
+  expect(await api.json()).toEqual({ error: "No such unit." });
+});
+
+test("the API refuses a request without a session", async ({ request }) => {
+  const response = await request.get("/api/units/00000000-0000-0000-0000-000000000000");
+  expect(response.status()).toBe(401);
+  void ACCOUNTS;
+});

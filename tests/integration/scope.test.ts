@@ -1,0 +1,44 @@
+import { afterAll, describe, expect, it } from "vitest";
+import { closeDb } from "@/db/client";
+import { countUnitsByOverall, getUnit, getUnitBySerial, listUnits } from "@/db/queries/units";
+import { demoUnits } from "@/db/seed-data";
+import { seededOrgs } from "./helpers";
+
+afterAll(closeDb);
+
+describe("unit queries under a Scope", () => {
+  it("listUnits gives the lab every unit it tests and each client only its own", async () => {
+    const { lab, kestrum, poldane } = await seededOrgs();
+    const all = await listUnits({ kind: "lab", labId: lab.id }, { limit: 500 });
+    const k = await listUnits({ kind: "manufacturer", organisationId: kestrum.id }, { limit: 500 });
+    const p = await listUnits({ kind: "manufacturer", organisationId: poldane.id }, { limit: 500 });
+    expect(all.length).toBeGreaterThanOrEqual(demoUnits.length);
+    expect(k.every((u) => u.owner === "Kestrum Generators")).toBe(true);
+    expect(p.every((u) => u.owner === "Poldane Motion Works")).toBe(true);
+    expect(k.length + p.length).toBe(all.length);
+  });
+
+  it("getUnit and getUnitBySerial return nothing for another organisation's unit", async () => {
+    const { kestrum, poldane } = await seededOrgs();
+    const [poldaneUnit] = await listUnits({ kind: "manufacturer", organisationId: poldane.id }, { limit: 1 });
+    expect(poldaneUnit).toBeDefined();
+    const asKestrum = { kind: "manufacturer", organisationId: kestrum.id } as const;
+    expect(await getUnit(asKestrum, poldaneUnit!.id)).toBeUndefined();
+    expect(await getUnitBySerial(asKestrum, poldaneUnit!.serial)).toBeUndefined();
+    expect((await getUnit({ kind: "manufacturer", organisationId: poldane.id }, poldaneUnit!.id))?.unit.serial).toBe(poldaneUnit!.serial);
+  });
+
+  it("a lab scope of another lab sees nothing", async () => {
+    const { kestrum } = await seededOrgs();
+    // A manufacturer's id used as a lab id matches no unit's lab.
+    const counts = await countUnitsByOverall({ kind: "lab", labId: kestrum.id });
+    expect(counts.total).toBe(0);
+  });
+
+  it("listUnits filters by serial text without treating % as a wildcard", async () => {
+    const { lab } = await seededOrgs();
+    const scope = { kind: "lab", labId: lab.id } as const;
+    expect((await listUnits(scope, { search: "PX120" })).length).toBeGreaterThan(0);
+    expect(await listUnits(scope, { search: "%" })).toHaveLength(0);
+  });
+});

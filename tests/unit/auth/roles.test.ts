@@ -1,0 +1,34 @@
+import { describe, expect, it } from "vitest";
+import { navFor } from "@/components/shell/nav-items";
+import { isLabRole, rolesForPath } from "@/lib/auth/roles";
+
+describe("rolesForPath(pathname)", () => {
+  it("keeps lab pages away from client accounts", () => {
+    for (const path of ["/upload", "/review", "/trends", "/stations", "/admin/people", "/admin/mailbox"]) {
+      expect(rolesForPath(path), path).not.toContain("manufacturer");
+    }
+  });
+  it("opens units and captures to every role", () => {
+    expect(rolesForPath("/units/abc")).toEqual(["admin", "operator", "qa", "manufacturer"]);
+    expect(rolesForPath("/captures/abc")).toContain("manufacturer");
+  });
+  it("matches whole path segments only", () => {
+    expect(rolesForPath("/administrator")).toBeNull();
+    expect(rolesForPath("/admin")).toEqual(["admin"]);
+  });
+});
+
+describe("navFor(role)", () => {
+  it("offers every linked page only to roles the path rules allow", () => {
+    for (const role of ["admin", "operator", "qa", "manufacturer"] as const) {
+      for (const item of navFor(role)) {
+        const allowed = rolesForPath(item.href);
+        if (allowed) expect(allowed, `${role} → ${item.href}`).toContain(role);
+      }
+    }
+  });
+  it("gives a client only the overview and its units", () => {
+    expect(navFor("manufacturer").map((i) => i.href)).toEqual(["/", "/units"]);
+    expect(isLabRole("manufacturer")).toBe(false);
+  });
+});
