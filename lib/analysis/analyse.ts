@@ -1,0 +1,124 @@
+import { computeBackEmf, polesFromSpeed } from "./back-emf";
+import { analyseChannel, finiteOrNull, isVoltageRole, type ChannelAnalysis } from "./channel-metrics";
+import { wholeCycleWindow } from "./cycles";
+import { estimateBySpectrum, estimateByZeroCrossings, refineFrequency } from "./frequency";
+import { spanMoments } from "./goertzel";
+import { highestOrderBelowNyquist } from "./harmonics";
+import { analysisOptionsSchema, type AnalysisOptions } from "./options";
+import { computePowerReport } from "./power-report";
+import { polePairWarning } from "./quality";
+import { CaptureRejection } from "./rejection";
+import { suggestChannelRoles } from "./roles";
+import { analyseThreePhase } from "./three-phase";
+import { ANALYSIS_VERSION } from "./version";
+import { computeVerdicts, overallStatus } from "./verdicts";
+import type { AnalysisReport, BackEmfReport } from "./report-schema";
+import type { ChannelRole, ParsedCapture, QualityWarning } from "./types";
+
+const MIN_CYCLES = 2;
+const FEW_CYCLES = 5;
+const REFERENCE_ORDER: ChannelRole[] = ["van", "vab", "v", "vbn", "vbc", "vcn", "vca", "ia", "ib", "ic"];
+
+/** Frequency of the reference channel: coarse FFT (or zero crossings), then phase-drift refinement. */
+function measureFrequency(samples: Float64Array, sampleRateHz: number, id: string, warnings: QualityWarning[]): { frequencyHz: number; zeroCrossingHz: number | null } {
+  const { mean } = spanMoments(samples, 0, samples.length - 2);
+  let amplitude = 0;
+  for (let n = 0; n < samples.length; n++) amplitude = Math.max(amplitude, Math.abs((samples[n] as number) - mean));
+  const crossings = estimateByZeroCrossings(samples, sampleRateHz, mean, amplitude);
+  const spectral = estimateBySpectrum(samples, sampleRateHz, mean);
+  const spectralAgrees = spectral !== null && (crossings === null || Math.abs(spectral - crossings.frequencyHz) <= 0.05 * crossings.frequencyHz);
+  const coarse = spectralAgrees ? spectral : (crossings?.frequencyHz ?? null);
+  if (coarse === null || !(coarse > 0)) {
+    throw new CaptureRejection("no-fundamental", "No periodic signal found: the reference channel never crosses its mean level twice", { column: id });
+  }
+  const refined = refineFrequency(samples, sampleRateHz, coarse);
+  const frequencyHz = Number.isFinite(refined) && refined > 0 ? refined : coarse;
+  if (crossings && Math.abs(crossings.frequencyHz - frequencyHz) > 0.01 * frequencyHz) {
+    warnings.push({
+      code: "frequency-cross-check",
+      message: `Zero crossings give ${crossings.frequencyHz.toFixed(4)} Hz against ${frequencyHz.toFixed(4)} Hz from the spectrum: the waveform may be noisy or heavily distorted`,
+    });
+  }
+  return { frequencyHz, zeroCrossingHz: crossings ? crossings.frequencyHz : null };
+}
+
+/**
+ * Analyses a parsed capture: per-channel metrics over the longest whole-cycle window, three-phase
+ * quantities, back-EMF constants, power and verdicts. Throws CaptureRejection when the capture
+ * holds too little to analyse; everything else not computable is null with a warning.
+ */
+export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions = {}): AnalysisReport {
+  const opts = analysisOptionsSchema.parse(options);
+  const warnings: QualityWarning[] = [...capture.warnings];
+  const { sampleRateHz } = capture;
+  if (capture.channels.length === 0) throw new CaptureRejection("no-channels", "The capture has no channels to analyse");
+  const suggested = suggestChannelRoles(capture.channels.map((channel) => channel.id));
+  const roles = capture.channels.map((channel) => opts.channelRoles?.[channel.id] ?? suggested[channel.id] ?? "v");
+  const referenceIndex = REFERENCE_ORDER.map((role) => roles.indexOf(role)).find((index) => index >= 0) ?? 0;
+  const reference = capture.channels[referenceIndex] as ParsedCapture["channels"][number];
+  const { frequencyHz, zeroCrossingHz } = measureFrequency(reference.samples, sampleRateHz, reference.id, warnings);
+  const window = wholeCycleWindow(capture.sampleCount, sampleRateHz, frequencyHz);
+  if (!window || window.cycles < MIN_CYCLES) {
+    throw new CaptureRejection("too-few-cycles", `Only ${window?.cycles ?? 0} whole cycle(s) of ${frequencyHz.toPrecision(5)} Hz: at least ${MIN_CYCLES} are needed`, { column: reference.id });
+  }
+  if (window.cycles < FEW_CYCLES) {
+    warnings.push({ code: "few-cycles", message: `Only ${window.cycles} whole cycles: frequency and RMS are less certain below ${FEW_CYCLES}` });
+  }
+  const highest = highestOrderBelowNyquist(sampleRateHz, frequencyHz);
+  if (highest < opts.harmonics) {
+    warnings.push({
+      code: "sample-rate-low",
+      message: `At ${sampleRateHz.toPrecision(5)} S/s harmonics stop at order ${highest} (fs must exceed 2·H·f1 = ${(2 * opts.harmonics * frequencyHz).toPrecision(5)} S/s for H = ${opts.harmonics})`,
+    });
+  }
+  const context = { sampleRateHz, frequencyHz, window, maxOrder: opts.harmonics, groupingIec: opts.groupingIec, deviationBasis: opts.deviationBasis };
+  const analyses: ChannelAnalysis[] = capture.channels.map((channel, index) => analyseChannel(channel, roles[index] as ChannelRole, context));
+  for (const analysis of analyses) warnings.push(...analysis.warnings);
+  const threePhase = analyseThreePhase(analyses, window);
+  const backEmf = computeBackEmfReport(analyses, threePhase?.report ?? null, frequencyHz, opts, warnings);
+  const power = computePowerReport(analyses, threePhase, window, warnings);
+  if (opts.harmonics * frequencyHz < 5000 && analyses.some((analysis) => isVoltageRole(analysis.role))) {
+    warnings.push({ code: "thf-band-limited", message: `THF sums harmonics up to ${(Math.min(opts.harmonics, highest) * frequencyHz).toFixed(0)} Hz, short of the 5 kHz of IEC 60034-1: raise the harmonic order for a full THF` });
+  }
+  const measured = { channels: analyses.map((analysis) => analysis.report), frequencyHz, threePhase: threePhase?.report ?? null, backEmf };
+  const verdicts = opts.rating ? computeVerdicts(measured, opts.rating, opts.tolerance, opts.marginalGuardPercent) : [];
+  return {
+    analysisVersion: ANALYSIS_VERSION,
+    sampleRateHz,
+    sampleCount: capture.sampleCount,
+    durationS: capture.sampleCount / sampleRateHz,
+    cyclesAnalysed: window.cycles,
+    frequencyZeroCrossingHz: finiteOrNull(zeroCrossingHz),
+    referenceChannel: reference.id,
+    ...measured,
+    power,
+    warnings,
+    verdicts,
+    overall: overallStatus(verdicts),
+  };
+}
+
+function computeBackEmfReport(
+  analyses: readonly ChannelAnalysis[],
+  threePhase: AnalysisReport["threePhase"],
+  frequencyHz: number,
+  opts: ReturnType<typeof analysisOptionsSchema.parse>,
+  warnings: QualityWarning[],
+): BackEmfReport | null {
+  if (opts.speedRpm === undefined) return null;
+  const polesFromFrequency = polesFromSpeed(frequencyHz, opts.speedRpm);
+  const poleWarning = polePairWarning(polesFromFrequency);
+  if (poleWarning) warnings.push(poleWarning);
+  const lines = threePhase?.lineToLine.map((line) => line.fundamentalRms);
+  const single = analyses.find((analysis) => isVoltageRole(analysis.role));
+  const lineRms = lines && lines.length > 0 ? lines.reduce((sum, value) => sum + value, 0) / lines.length : single?.report.fundamental.rms;
+  if (lineRms === undefined) {
+    warnings.push({ code: "back-emf-no-voltage", message: "A speed was given but no voltage channel is present: back-EMF constant not computable" });
+    return null;
+  }
+  if (!threePhase) {
+    warnings.push({ code: "back-emf-single-channel", message: `Back-EMF constant taken from channel "${single?.channel.id}" as a line-line voltage` });
+  }
+  const poles = opts.poles ?? opts.rating?.poles ?? Math.max(2, 2 * Math.round(polesFromFrequency / 2));
+  return { ...computeBackEmf(lineRms, opts.speedRpm, poles), polesFromFrequency, basis: "fundamental" };
+}

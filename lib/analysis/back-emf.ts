@@ -1,0 +1,41 @@
+/** rad/s per krpm: 1000·2π/60 = 104.72. */
+export const RAD_PER_S_PER_KRPM = (1000 * 2 * Math.PI) / 60;
+
+export interface BackEmfResult {
+  speedRpm: number;
+  poles: number;
+  expectedFrequencyHz: number;
+  keLineRmsPerKrpm: number;
+  keLinePeakPerKrpm: number;
+  kePhasePeakPerRadS: number;
+  /** Ke_LL,rms in V·s/rad (per mechanical rad/s). */
+  keLineRmsVsPerRad: number;
+  /** Kt = √3·Ke_LL,rms[V·s/rad], sinusoidal machine, current in phase with EMF [D]. */
+  ktNmPerArms: number;
+}
+
+/** Pole count implied by f = p·n/120; an even integer for a healthy capture and rating. */
+export function polesFromSpeed(frequencyHz: number, speedRpm: number): number {
+  return (120 * frequencyHz) / speedRpm;
+}
+
+/**
+ * Back-EMF constants of a machine driven at `speedRpm` with open terminals, from the
+ * fundamental line-line RMS voltage. Phase values assume a star-equivalent (V_ph = V_LL/√3).
+ */
+export function computeBackEmf(lineRmsVolts: number, speedRpm: number, poles: number): BackEmfResult {
+  const krpm = speedRpm / 1000;
+  const radPerS = krpm * RAD_PER_S_PER_KRPM;
+  const keLineRmsPerKrpm = lineRmsVolts / krpm;
+  const keLineRmsVsPerRad = lineRmsVolts / radPerS;
+  return {
+    speedRpm,
+    poles,
+    expectedFrequencyHz: (poles * speedRpm) / 120,
+    keLineRmsPerKrpm,
+    keLinePeakPerKrpm: Math.SQRT2 * keLineRmsPerKrpm,
+    kePhasePeakPerRadS: (Math.SQRT2 * lineRmsVolts) / Math.sqrt(3) / radPerS,
+    keLineRmsVsPerRad,
+    ktNmPerArms: Math.sqrt(3) * keLineRmsVsPerRad,
+  };
+}

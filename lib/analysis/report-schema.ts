@@ -1,0 +1,118 @@
+import { z } from "zod";
+import { CHANNEL_ROLES } from "./types";
+
+/** Numbers in a report are always finite: "not computable" is null plus a warning. */
+const finite = z.number();
+const maybe = finite.nullable();
+
+export const channelRoleSchema = z.enum(CHANNEL_ROLES);
+
+const harmonicSchema = z.object({ order: z.number().int().min(2), rms: finite, phaseDeg: finite });
+
+const channelReportSchema = z.object({
+  id: z.string(),
+  role: channelRoleSchema,
+  unit: z.enum(["V", "A"]),
+  rms: finite,
+  dc: finite,
+  peak: finite,
+  crestFactor: maybe,
+  fundamental: z.object({ rms: finite, phaseDeg: finite }),
+  harmonics: z.array(harmonicSchema),
+  thdFPercent: maybe,
+  thdRPercent: maybe,
+  thfPercent: maybe,
+  tif: maybe,
+  deviationFactorPercent: maybe,
+  /** IEC 61000-4-7 harmonic groups, when grouping was asked for. */
+  harmonicGroups: z.array(z.object({ order: z.number().int().min(1), rms: finite })).nullable(),
+  thdGroupedPercent: maybe,
+});
+
+const threePhaseSchema = z.object({
+  basis: z.enum(["line-neutral", "line-line"]),
+  sequence: z.enum(["positive", "negative"]),
+  displacementDeg: z.object({ ab: finite, bc: finite, ca: finite }),
+  /** RMS magnitudes of the fundamental symmetrical components. */
+  sequenceComponents: z.object({ positive: finite, negative: finite, zero: finite }),
+  unbalance: z.object({ nemaPercent: maybe, ieeePercent: maybe, vufPercent: maybe }),
+  lineToLine: z.array(z.object({ id: z.string(), rms: finite, fundamentalRms: finite, source: z.enum(["measured", "derived"]) })),
+});
+
+const backEmfSchema = z.object({
+  speedRpm: finite,
+  poles: z.number().int(),
+  polesFromFrequency: finite,
+  expectedFrequencyHz: finite,
+  keLineRmsPerKrpm: finite,
+  keLinePeakPerKrpm: finite,
+  kePhasePeakPerRadS: finite,
+  keLineRmsVsPerRad: finite,
+  ktNmPerArms: finite,
+  basis: z.literal("fundamental"),
+});
+
+const phasePowerSchema = z.object({
+  voltageId: z.string(),
+  currentId: z.string(),
+  activePowerW: finite,
+  fundamentalActivePowerW: finite,
+  fundamentalReactivePowerVar: finite,
+  apparentPowerVa: finite,
+  fundamentalApparentPowerVa: finite,
+  powerFactor: maybe,
+  fundamentalPowerFactor: maybe,
+});
+
+const powerSchema = z.object({
+  phases: z.array(phasePowerSchema),
+  total: z.object({
+    activePowerW: finite,
+    fundamentalActivePowerW: finite,
+    fundamentalReactivePowerVar: finite,
+    effectiveApparentPowerVa: finite,
+    powerFactor: maybe,
+    positiveSequenceActivePowerW: maybe,
+  }),
+});
+
+export const verdictStatusSchema = z.enum(["pass", "marginal", "fail", "not-applicable"]);
+
+export const verdictSchema = z.object({
+  check: z.string(),
+  label: z.string(),
+  measured: z.union([finite, z.string()]).nullable(),
+  unit: z.string(),
+  lower: maybe,
+  upper: maybe,
+  status: verdictStatusSchema,
+  basis: z.string(),
+  source: z.string(),
+});
+
+export const analysisReportSchema = z.object({
+  analysisVersion: z.string(),
+  sampleRateHz: finite,
+  sampleCount: z.number().int(),
+  durationS: finite,
+  cyclesAnalysed: z.number().int(),
+  frequencyHz: finite,
+  /** Zero-crossing estimate, kept as a cross-check of `frequencyHz`. */
+  frequencyZeroCrossingHz: maybe,
+  referenceChannel: z.string(),
+  channels: z.array(channelReportSchema),
+  threePhase: threePhaseSchema.nullable(),
+  backEmf: backEmfSchema.nullable(),
+  power: powerSchema.nullable(),
+  warnings: z.array(z.object({ code: z.string(), message: z.string() })),
+  verdicts: z.array(verdictSchema),
+  overall: verdictStatusSchema,
+});
+
+export type AnalysisReport = z.infer<typeof analysisReportSchema>;
+export type ChannelReport = z.infer<typeof channelReportSchema>;
+export type ThreePhaseReport = z.infer<typeof threePhaseSchema>;
+export type BackEmfReport = z.infer<typeof backEmfSchema>;
+export type PowerReport = z.infer<typeof powerSchema>;
+export type Verdict = z.infer<typeof verdictSchema>;
+export type VerdictStatus = z.infer<typeof verdictStatusSchema>;
