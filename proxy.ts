@@ -14,7 +14,7 @@ export async function proxy(request: NextRequest) {
   }
   const roles = rolesForPath(pathname);
   if (roles && !roles.includes(token.role)) {
-    return NextResponse.rewrite(new URL("/access-denied", request.url), { status: 403 });
+    return NextResponse.redirect(new URL("/access-denied", request.url));
   }
   return NextResponse.next();
 }

@@ -1,5 +1,5 @@
 import { expect, test } from "@playwright/test";
-import { signIn } from "./support";
+import { signIn, signOut } from "./support";
 
 test("an admin invites a quality engineer, who sets a password from the mailed link and signs in", async ({ page }) => {
   const email = `new.engineer.${Date.now()}@harrowgate.example`;
@@ -18,7 +18,7 @@ test("an admin invites a quality engineer, who sets a password from the mailed l
   const body = await message.locator("pre").innerText();
   const link = body.match(/https?:\/\/\S+\/set-password\?token=\S+/)?.[0];
   expect(link).toBeTruthy();
-  await page.getByRole("button", { name: "Sign out" }).click();
+  await signOut(page);
 
   await page.goto(link!);
   await page.getByLabel("New password").fill("copper-windings-42");

@@ -17,3 +17,9 @@ export async function signIn(page: Page, who: keyof typeof ACCOUNTS, password = 
   await page.getByRole("button", { name: "Sign in" }).click();
   if (password === DEMO_PASSWORD) await expect(page.getByTestId("signed-in-as")).toHaveText(ACCOUNTS[who].name);
 }
+
+export async function signOut(page: Page) {
+  await page.getByRole("button", { name: "Sign out" }).click();
+  await expect(page).toHaveURL(/\/sign-in/);
+  await expect(page.getByRole("button", { name: "Sign in" })).toBeVisible();
+}

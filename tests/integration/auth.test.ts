@@ -1,6 +1,7 @@
 import { randomUUID } from "node:crypto";
 import { afterAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/db/client";
+import { clearFailures } from "@/db/queries/sign-in-attempts";
 import { DEMO_PASSWORD } from "@/db/seed-data";
 import { authenticate } from "@/lib/auth/authenticate";
 import { getEnv } from "@/lib/server/env";
@@ -32,6 +33,7 @@ describe("authenticate(email, password, address)", () => {
     const locked = await authenticate(email, DEMO_PASSWORD, `a-${randomUUID()}`);
     expect(locked.ok).toBe(false);
     if (!locked.ok) expect(locked.message).toMatch(/Too many failed sign-in attempts/);
+    await clearFailures(email);
   });
 
   it("limits one client address across accounts", async () => {
