@@ -1,0 +1,103 @@
+/**
+ * npm run bench [-- --sizes 1e5,1e6,1e7]
+ * Generates 3-channel captures into bench-out/, then for each file runs the TypeScript engine and
+ * the pandas + numpy equivalent in separate child processes (so peak RSS is per file) and prints
+ * time, throughput, peak RSS and the time ratio. It reports; it does not pass or fail.
+ * Other sections (e.g. a worker pipeline run) can reuse `runEngine`, `formatRow` and `printTable`.
+ */
+import { execFileSync, spawnSync } from "node:child_process";
+import { mkdirSync, writeFileSync } from "node:fs";
+import path from "node:path";
+import { ensureBenchCapture } from "./generate";
+import { printTable } from "./table";
+
+export { printTable } from "./table";
+
+const ROOT = path.resolve(import.meta.dirname, "../..");
+const OUT = path.join(ROOT, "bench-out");
+const PYTHON = "/usr/bin/python3";
+/** The issue's targets for the 1e7-row file. */
+const TARGET_RATIO = 0.35;
+const TARGET_RSS_MB = 500;
+
+export interface Measurement {
+  ingestS: number;
+  analyseS: number;
+  totalS: number;
+  peakRssMb: number;
+  frequencyHz: number;
+  thdFPercent: number | null;
+  rms: number | null;
+}
+
+function runJson(command: string, args: string[]): Measurement {
+  const result = spawnSync(command, args, { cwd: ROOT, encoding: "utf8", maxBuffer: 1 << 20 });
+  if (result.status !== 0) throw new Error(`${command} ${args.join(" ")} failed: ${result.stderr}`);
+  const lastLine = result.stdout.trim().split("\n").pop() ?? "";
+  return JSON.parse(lastLine) as Measurement;
+}
+
+export function runEngine(file: string): Measurement {
+  return runJson(process.execPath, ["--import", "tsx", path.join(ROOT, "scripts/bench/measure-capture.ts"), file]);
+}
+
+function pandasAvailable(): string | null {
+  try {
+    execFileSync(PYTHON, ["-c", "import pandas, numpy"], { stdio: "ignore" });
+    return null;
+  } catch {
+    return `pandas + numpy not importable by ${PYTHON}: comparison skipped`;
+  }
+}
+
+export function runPandas(file: string): Measurement {
+  return runJson(PYTHON, [path.join(ROOT, "scripts/bench/pandas_equivalent.py"), file]);
+}
+
+const seconds = (value: number): string => value.toFixed(2);
+
+export function formatRow(label: string, sizeBytes: number, m: Measurement): string[] {
+  return [label, seconds(m.ingestS), seconds(m.analyseS), seconds(m.totalS), (sizeBytes / 1e6 / m.totalS).toFixed(0), m.peakRssMb.toFixed(0)];
+}
+
+function parseSizes(argv: string[]): number[] {
+  const index = argv.indexOf("--sizes");
+  const list = index >= 0 ? (argv[index + 1] ?? "") : "1e5,1e6,1e7";
+  return list.split(",").map((item) => Number(item)).filter((value) => Number.isInteger(value) && value > 0);
+}
+
+function main(): void {
+  mkdirSync(OUT, { recursive: true });
+  const skipped = pandasAvailable();
+  const rows: string[][] = [["file", "ingest s", "analyse s", "total s", "MB/s", "peak RSS MB"]];
+  const ratios: string[][] = [["rows", "MB", "engine s", "pandas s", "ratio", "engine RSS", "pandas RSS", "target (1e7)"]];
+  const results: Record<string, unknown>[] = [];
+  for (const count of parseSizes(process.argv.slice(2))) {
+    const file = path.join(OUT, `capture-${count.toExponential().replace("+", "")}.csv`);
+    const size = ensureBenchCapture(file, count);
+    const label = `${count.toExponential(0)} rows (${(size / 1e6).toFixed(0)} MB)`;
+    const engine = runEngine(file);
+    rows.push(formatRow(`engine ${label}`, size, engine));
+    const pandas = skipped ? null : runPandas(file);
+    if (pandas) rows.push(formatRow(`pandas ${label}`, size, pandas));
+    const ratio = pandas ? engine.totalS / pandas.totalS : null;
+    const target = count >= 1e7 ? `${ratio !== null && ratio <= TARGET_RATIO ? "met" : "missed"} ≤${TARGET_RATIO}×, ${engine.peakRssMb < TARGET_RSS_MB ? "met" : "missed"} <${TARGET_RSS_MB} MB` : "";
+    ratios.push([
+      count.toExponential(0),
+      (size / 1e6).toFixed(0),
+      seconds(engine.totalS),
+      pandas ? seconds(pandas.totalS) : "—",
+      ratio !== null ? `${ratio.toFixed(2)}×` : "—",
+      engine.peakRssMb.toFixed(0),
+      pandas ? pandas.peakRssMb.toFixed(0) : "—",
+      target,
+    ]);
+    results.push({ rows: count, bytes: size, engine, pandas });
+  }
+  printTable("Ingestion + analysis, one child process per run", rows);
+  printTable("Engine against pandas + numpy (same files, same run)", ratios);
+  if (skipped) console.log(`\nNote: ${skipped}`);
+  writeFileSync(path.join(OUT, "results.json"), `${JSON.stringify(results, null, 2)}\n`);
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) main();

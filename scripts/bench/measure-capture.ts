@@ -1,0 +1,25 @@
+/**
+ * Child process of the benchmark: ingests and analyses one capture, then prints one JSON line.
+ * Run in its own process so the peak RSS (getrusage maxrss) belongs to this file alone.
+ */
+import { analyseCapture } from "@/lib/analysis";
+import { readCaptureFile } from "@/lib/server/capture-reader";
+
+const path = process.argv[2];
+if (!path) throw new Error("usage: measure-capture.ts <capture.csv>");
+const start = performance.now();
+const capture = await readCaptureFile(path);
+const ingested = performance.now();
+const report = analyseCapture(capture, { channelRoles: { "V_AB (V)": "vab", "V_BC (V)": "vbc", "V_CA (V)": "vca" } });
+const done = performance.now();
+process.stdout.write(
+  `${JSON.stringify({
+    ingestS: (ingested - start) / 1000,
+    analyseS: (done - ingested) / 1000,
+    totalS: (done - start) / 1000,
+    peakRssMb: process.resourceUsage().maxRSS / 1024,
+    frequencyHz: report.frequencyHz,
+    thdFPercent: report.channels[0]?.thdFPercent ?? null,
+    rms: report.channels[0]?.rms ?? null,
+  })}\n`,
+);
