@@ -34,19 +34,20 @@ interface HeadLines {
   starts: number[];
 }
 
-function splitHead(head: Uint8Array, final: boolean): HeadLines {
+/** The first `maxLines` complete lines of the head (all of them once the input has ended). */
+function splitHead(head: Uint8Array, final: boolean, maxLines: number): HeadLines {
   const decoder = new TextDecoder();
   const lines: string[] = [];
   const starts: number[] = [];
   let start = 0;
-  for (;;) {
+  while (lines.length < maxLines) {
     const newline = head.indexOf(10, start);
     if (newline < 0) break;
     starts.push(start);
     lines.push(decoder.decode(head.subarray(start, newline)).replace(/\r$/, ""));
     start = newline + 1;
   }
-  if (final && start < head.length) {
+  if (final && start < head.length && lines.length < maxLines) {
     starts.push(start);
     lines.push(decoder.decode(head.subarray(start)).replace(/\r$/, ""));
   }
@@ -85,11 +86,13 @@ export function createCaptureParser(options: ParseOptions = {}): { push(chunk: U
     const head = concat(headChunks, headBytes);
     headChunks = [head];
     rejectBinary(head);
-    const { lines, starts } = splitHead(head, final);
+    const { lines, starts } = splitHead(head, final, headLineTarget);
     layout = sniffLines(lines);
     headChunks = [];
     const bodyOffset = starts[layout.dataStartIndex] ?? head.length;
-    const bytesPerRow = Math.max(1, (head.length - bodyOffset) / Math.max(1, lines.length - layout.dataStartIndex));
+    const lastStart = starts[starts.length - 1] ?? bodyOffset;
+    const sampledRows = starts.length - 1 - layout.dataStartIndex;
+    const bytesPerRow = sampledRows > 0 ? Math.max(1, (lastStart - bodyOffset) / sampledRows) : 64;
     const expectedRows = options.expectedBytes ? (options.expectedBytes - bodyOffset) / bytesPerRow : 0;
     const columns: SinkColumn[] = layout.headers.map((header, index) => {
       const calibration = options.calibration?.[header];
