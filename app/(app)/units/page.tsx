@@ -57,7 +57,7 @@ export default async function UnitsPage({ searchParams }: { searchParams: Promis
             <tbody>
               {view.rows.map((u) => (
                 <tr key={u.id} className="border-t border-ink-100">
-                  <td className="px-4 py-2 font-mono"><Link href={`/units/${u.id}`}>{u.serial}</Link></td>
+                  <td className="whitespace-nowrap px-4 py-2 font-mono"><Link href={`/units/${u.id}`}>{u.serial}</Link></td>
                   <td className="px-4 py-2">{u.modelCode} · {u.ratingTitle}</td>
                   {view.showOwner ? <td className="px-4 py-2">{u.owner}</td> : null}
                   <td className="px-4 py-2 tabular-nums">{u.captureCount}</td>

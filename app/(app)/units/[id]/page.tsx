@@ -1,7 +1,10 @@
 import { notFound } from "next/navigation";
 import { PageHeader } from "@/components/shell/page-header";
 import { StatusTag } from "@/components/ui/status-tag";
+import { getUnitHistoryView } from "@/lib/dal/review";
 import { getUnitView } from "@/lib/dal/units";
+import { DispositionPanel } from "./_components/disposition-panel";
+import { UnitHistory } from "./_components/unit-history";
 
 export default async function UnitPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
@@ -9,6 +12,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
   // Another organisation's unit is indistinguishable from a missing one.
   if (!view) notFound();
   const { unit, rating, owner } = view;
+  const history = await getUnitHistoryView(unit.id);
   return (
     <>
       <PageHeader title={`Unit ${unit.serial}`} lead={`${rating.modelCode} · ${rating.title} · ${owner}`} />
@@ -18,6 +22,13 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
         <div><dt className="text-ink-600">Registered</dt><dd className="mt-1">{unit.createdAt.toISOString().slice(0, 10)}</dd></div>
         <div><dt className="text-ink-600">Model</dt><dd className="mt-1 font-mono">{rating.modelCode}</dd></div>
       </dl>
+      <section aria-labelledby="decisions" className="mt-6 grid gap-6 rounded-lg bg-white p-5 shadow-sm ring-1 ring-ink-200 md:grid-cols-2">
+        <div>
+          <h2 id="decisions" className="mb-3 font-semibold">Decisions</h2>
+          <UnitHistory events={history.events} />
+        </div>
+        {history.canDisposition ? <DispositionPanel unitId={unit.id} current={unit.disposition} /> : null}
+      </section>
     </>
   );
 }

@@ -1,0 +1,16 @@
+type Event = { id: string; kind: string; from: string | null; to: string | null; comment: string; at: Date; actor: string };
+
+export function UnitHistory({ events }: { events: Event[] }) {
+  if (events.length === 0) return <p className="text-sm text-ink-600">No decisions recorded yet.</p>;
+  return (
+    <ol className="space-y-3 text-sm">
+      {events.map((e) => (
+        <li key={e.id} className="border-l-2 border-copper-400 pl-3">
+          <p><span className="font-semibold">{e.actor}</span> changed the disposition from <em>{e.from}</em> to <em>{e.to}</em></p>
+          <p className="text-xs text-ink-600">{e.at.toISOString().replace("T", " ").slice(0, 16)} UTC</p>
+          {e.comment ? <p className="mt-1 whitespace-pre-wrap">{e.comment}</p> : null}
+        </li>
+      ))}
+    </ol>
+  );
+}
