@@ -47,6 +47,7 @@ export E2E_BASE_URL="http://127.0.0.1:$E2E_PORT"
 
 step "fresh test database"
 node_modules/.bin/tsx scripts/reset-test-db.ts
+node_modules/.bin/tsx scripts/preflight.ts
 node_modules/.bin/tsx scripts/migrate.ts
 node_modules/.bin/tsx scripts/seed.ts
 

@@ -16,6 +16,7 @@ bash scripts/services.sh start
 ensure_dotenv
 load_env_file .env
 step "migrations and demo data"
+node_modules/.bin/tsx scripts/preflight.ts
 node_modules/.bin/tsx scripts/migrate.ts
 node_modules/.bin/tsx scripts/seed.ts
 step "build"
