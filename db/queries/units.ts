@@ -61,3 +61,29 @@ export async function countUnitsByOverall(scope: Scope) {
   }
   return counts;
 }
+
+/** Ratings a lab may register new units against: every rating on file, with its owner's name. */
+export async function listRatingsForRegistration(scope: Scope) {
+  if (scope.kind !== "lab") return [];
+  return getDb()
+    .select({ id: ratings.id, modelCode: ratings.modelCode, title: ratings.title, owner: organisations.name })
+    .from(ratings)
+    .innerJoin(organisations, eq(organisations.id, ratings.organisationId))
+    .orderBy(asc(organisations.name), asc(ratings.modelCode));
+}
+
+export async function getRatingForRegistration(scope: Scope, ratingId: string) {
+  if (scope.kind !== "lab") return undefined;
+  const rows = await getDb().select().from(ratings).where(eq(ratings.id, ratingId)).limit(1);
+  return rows[0];
+}
+
+/** Registers a unit in the scope's lab, owned by the rating's manufacturer; returns the existing one on a serial clash. */
+export async function insertUnitOnce(scope: Scope & { kind: "lab" }, values: { serial: string; ratingId: string; organisationId: string }): Promise<Unit> {
+  const db = getDb();
+  const inserted = await db.insert(units).values({ ...values, labId: scope.labId }).onConflictDoNothing({ target: [units.labId, units.serial] }).returning();
+  if (inserted[0]) return inserted[0];
+  const existing = await db.select().from(units).where(and(eq(units.labId, scope.labId), eq(units.serial, values.serial))).limit(1);
+  if (!existing[0]) throw new Error("unit insert conflicted but no row was found");
+  return existing[0];
+}

@@ -1,0 +1,16 @@
+import { errorResponse, HttpError } from "@/lib/auth/guards";
+import { requireSessionActor } from "@/lib/dal/actor";
+import { getCapturePlotView } from "@/lib/dal/captures";
+import { requireUuid } from "@/lib/dal/request";
+
+/** The waveform envelope and harmonic spectrum of the current analysis. */
+export async function GET(_request: Request, { params }: { params: Promise<{ id: string }> }) {
+  try {
+    const actor = await requireSessionActor();
+    const plot = await getCapturePlotView(actor, requireUuid((await params).id, "capture"));
+    if (!plot) throw new HttpError(404, "No analysis to plot for this capture yet");
+    return Response.json(plot, { headers: { "Cache-Control": "private, max-age=60" } });
+  } catch (err) {
+    return errorResponse(err);
+  }
+}

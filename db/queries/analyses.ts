@@ -1,0 +1,78 @@
+import { and, desc, eq, inArray, sql } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { analyses, captures, units, type Analysis } from "@/db/schema";
+import { captureScopeWhere } from "./captures";
+import { unitScopeWhere, type Scope } from "./scope";
+
+export type NewAnalysis = Omit<typeof analyses.$inferInsert, "id" | "current" | "createdAt">;
+
+/**
+ * Stores a finished analysis as the capture's current one (earlier runs stay, marked not current),
+ * moves the capture to analysed and refreshes the unit's latest verdict when this capture is its newest.
+ * Returns false when the capture was no longer awaiting analysis (another run finished first).
+ */
+export async function recordAnalysis(scope: Scope, input: NewAnalysis): Promise<boolean> {
+  return getDb().transaction(async (tx) => {
+    const now = new Date();
+    const moved = await tx
+      .update(captures)
+      .set({ state: "analysed", progress: 100, stateMessage: null, analysedAt: now, updatedAt: now })
+      .where(and(eq(captures.id, input.captureId), inArray(captures.state, ["queued", "analysing", "analysed"]), captureScopeWhere(scope)))
+      .returning({ unitId: captures.unitId, createdAt: captures.createdAt });
+    const capture = moved[0];
+    if (!capture) return false;
+    await tx.update(analyses).set({ current: false }).where(and(eq(analyses.captureId, input.captureId), eq(analyses.current, true)));
+    await tx.insert(analyses).values({ ...input, current: true });
+    await tx
+      .update(units)
+      .set({ latestOverall: input.overall ?? null, latestCaptureAt: capture.createdAt })
+      .where(
+        and(
+          eq(units.id, capture.unitId),
+          unitScopeWhere(scope),
+          sql`(${units.latestCaptureAt} is null or ${units.latestCaptureAt} <= ${capture.createdAt.toISOString()})`,
+        ),
+      );
+    return true;
+  });
+}
+
+export async function getCurrentAnalysis(scope: Scope, captureId: string): Promise<Analysis | undefined> {
+  const rows = await getDb()
+    .select({ analysis: analyses })
+    .from(analyses)
+    .innerJoin(captures, eq(captures.id, analyses.captureId))
+    .innerJoin(units, eq(units.id, captures.unitId))
+    .where(and(eq(analyses.captureId, captureId), eq(analyses.current, true), unitScopeWhere(scope)))
+    .limit(1);
+  return rows[0]?.analysis;
+}
+
+/** Earlier and current runs of one capture, newest first, without the bulky columns. */
+export async function listAnalysisHistory(scope: Scope, captureId: string) {
+  return getDb()
+    .select({
+      id: analyses.id, analysisVersion: analyses.analysisVersion, toleranceDigest: analyses.toleranceDigest, current: analyses.current,
+      overall: analyses.overall, createdAt: analyses.createdAt,
+    })
+    .from(analyses)
+    .innerJoin(captures, eq(captures.id, analyses.captureId))
+    .innerJoin(units, eq(units.id, captures.unitId))
+    .where(and(eq(analyses.captureId, captureId), unitScopeWhere(scope)))
+    .orderBy(desc(analyses.createdAt));
+}
+
+/** Every verdict a unit has had, oldest first: the unit page's history. */
+export async function listUnitVerdictHistory(scope: Scope, unitId: string) {
+  return getDb()
+    .select({
+      analysisId: analyses.id, captureId: captures.id, testKind: captures.testKind, overall: analyses.overall,
+      current: analyses.current, analysisVersion: analyses.analysisVersion, createdAt: analyses.createdAt,
+    })
+    .from(analyses)
+    .innerJoin(captures, eq(captures.id, analyses.captureId))
+    .innerJoin(units, eq(units.id, captures.unitId))
+    .where(and(eq(captures.unitId, unitId), unitScopeWhere(scope)))
+    .orderBy(analyses.createdAt)
+    .limit(500);
+}

@@ -1,0 +1,51 @@
+import { z } from "zod";
+import { CHANNEL_ROLES } from "@/lib/analysis";
+
+// Inputs of the upload flow, shared by the browser form, the session handlers and the bench API.
+// Browser-safe: no server imports.
+
+export const TEST_KINDS = ["no-load", "load", "back-emf", "other"] as const;
+export const TEST_KIND_LABELS: Record<(typeof TEST_KINDS)[number], string> = {
+  "no-load": "No-load (open circuit)", load: "Load", "back-emf": "Back-EMF (PM, driven)", other: "Other",
+};
+
+/** What a capture file may be called: the instruments' CSV exports. */
+export const CAPTURE_FILE_NAME = /\.(csv|txt|tsv)$/i;
+const MAX_CHANNELS = 8;
+
+export const channelRolesSchema = z
+  .record(z.string().min(1).max(120), z.enum(CHANNEL_ROLES))
+  .refine((r) => Object.keys(r).length <= MAX_CHANNELS, `At most ${MAX_CHANNELS} channels`);
+
+export const probeScalesSchema = z
+  .record(z.string().min(1).max(120), z.number().positive().finite().max(1e6))
+  .refine((r) => Object.keys(r).length <= MAX_CHANNELS, `At most ${MAX_CHANNELS} channels`);
+
+export const captureRegistrationSchema = z.object({
+  unitSerial: z.string().trim().min(1, "Give the unit's serial number").max(64).regex(/^[\w./-]+$/, "Serial numbers use letters, digits, - _ . / only"),
+  /** Registers the unit with this rating when the serial is not known yet. */
+  newUnitRatingId: z.uuid().optional(),
+  testKind: z.enum(TEST_KINDS),
+  speedRpm: z.number().positive().max(200_000).nullable().optional(),
+  channelRoles: channelRolesSchema.default({}),
+  probeScales: probeScalesSchema.default({}),
+  stationId: z.uuid().optional(),
+  notes: z.string().max(2000).default(""),
+  fileName: z.string().trim().min(1).max(255).regex(CAPTURE_FILE_NAME, "Only CSV exports are accepted (.csv, .txt or .tsv)"),
+  sizeBytes: z.number().int().positive("The file is empty"),
+  sha256: z.string().regex(/^[0-9a-f]{64}$/, "sha256 must be 64 lower-case hex digits"),
+});
+
+export type CaptureRegistration = z.input<typeof captureRegistrationSchema>;
+
+export const completeUploadSchema = z.object({
+  parts: z.array(z.object({ partNumber: z.number().int().min(1).max(10_000), etag: z.string().min(1).max(200) })).max(10_000).optional(),
+});
+
+export const presignPartsSchema = z.object({
+  partNumbers: z.array(z.number().int().min(1).max(10_000)).min(1).max(200),
+});
+
+export type UploadPlan =
+  | { kind: "single"; method: "PUT"; url: string; headers: Record<string, string>; expiresInS: number }
+  | { kind: "multipart"; partSize: number; parts: { partNumber: number; url: string }[]; expiresInS: number };

@@ -1,0 +1,50 @@
+import "server-only";
+import type { Scope } from "@/db/queries/scope";
+import { findStationKeyByPrefix, touchStationKey } from "@/db/queries/station-keys";
+import { HttpError, requireApiUser } from "@/lib/auth/guards";
+import type { SessionUser } from "@/lib/auth/options";
+import { parseStationKey, secretMatches } from "@/lib/server/hash";
+import { scopeFor } from "./scope";
+
+/** Who is asking: a signed-in person or a bench PC with a station key. Both end in a Scope. */
+export type Actor = {
+  scope: Scope;
+  userId: string | null;
+  stationKeyId: string | null;
+  stationId: string | null;
+  /** Lab managers, operators and station keys may register and upload captures. */
+  canUpload: boolean;
+};
+
+export function actorForUser(user: SessionUser): Actor {
+  return {
+    scope: scopeFor(user), userId: user.id, stationKeyId: null, stationId: null,
+    canUpload: user.role === "admin" || user.role === "operator",
+  };
+}
+
+/** For the session handlers the browser calls. */
+export async function requireSessionActor(): Promise<Actor> {
+  return actorForUser(await requireApiUser());
+}
+
+/** For the bench API: `Authorization: Bearer emk_<prefix>.<secret>`. */
+export async function requireStationActor(request: Request): Promise<Actor> {
+  const match = /^Bearer\s+(\S+)$/i.exec(request.headers.get("authorization") ?? "");
+  if (!match) throw new HttpError(401, "Send a station key: Authorization: Bearer emk_<prefix>.<secret>");
+  const parsed = parseStationKey(match[1] as string);
+  if (!parsed) throw new HttpError(401, "That is not a station key (expected emk_<12 hex>.<32 characters>)");
+  const found = await findStationKeyByPrefix(parsed.prefix);
+  if (!found || !secretMatches(parsed.secret, found.key.secretHash)) throw new HttpError(401, "Unknown station key");
+  if (found.key.revokedAt) {
+    throw new HttpError(401, `This station key was revoked on ${found.key.revokedAt.toISOString().slice(0, 10)}: ask a lab manager for a new one`);
+  }
+  const stale = !found.key.lastUsedAt || Date.now() - found.key.lastUsedAt.getTime() > 60_000;
+  if (stale) await touchStationKey(found.key.id);
+  return { scope: { kind: "lab", labId: found.labId }, userId: null, stationKeyId: found.key.id, stationId: found.key.stationId, canUpload: true };
+}
+
+export function requireUploader(actor: Actor): Scope & { kind: "lab" } {
+  if (!actor.canUpload || actor.scope.kind !== "lab") throw new HttpError(403, "Only lab managers, bench operators and station keys may upload captures");
+  return actor.scope;
+}

@@ -1,0 +1,87 @@
+import "server-only";
+import { getCurrentAnalysis, listAnalysisHistory } from "@/db/queries/analyses";
+import { getCaptureDetail, listCapturesForUnit, listRecentCaptures } from "@/db/queries/captures";
+import { getUnitBySerial } from "@/db/queries/units";
+import type { AnalysisReport } from "@/lib/analysis";
+import { HttpError } from "@/lib/auth/guards";
+import { presignDownload } from "@/lib/server/storage";
+import type { Actor } from "./actor";
+
+// One read path for the capture page, the browser's polling handlers and the bench API.
+
+export type CaptureStatusView = {
+  id: string; unitId: string; serial: string; modelCode: string; ratingTitle: string;
+  state: "uploading" | "queued" | "analysing" | "analysed" | "rejected" | "failed";
+  stateMessage: string | null; progress: number; attempts: number;
+  testKind: string; speedRpm: number | null; channelRoles: Record<string, string>; probeScales: Record<string, number>;
+  notes: string; originalName: string; sizeBytes: number; sha256: string; stationName: string | null; uploadedBy: string | null;
+  createdAt: string; uploadedAt: string | null; analysedAt: string | null;
+  analysis: null | {
+    analysisVersion: string; overall: string | null; frequencyHz: number | null; worstThdPercent: number | null;
+    vufPercent: number | null; keLineRmsPerKrpm: number | null; createdAt: string; report: AnalysisReport;
+  };
+};
+
+export const FINAL_STATES = new Set(["analysed", "rejected", "failed"]);
+
+export async function getCaptureStatusView(actor: Actor, captureId: string): Promise<CaptureStatusView | null> {
+  const found = await getCaptureDetail(actor.scope, captureId);
+  if (!found) return null;
+  const c = found.capture;
+  const analysis = c.state === "analysed" ? await getCurrentAnalysis(actor.scope, captureId) : undefined;
+  return {
+    id: c.id, unitId: c.unitId, serial: found.serial, modelCode: found.modelCode, ratingTitle: found.ratingTitle,
+    state: c.state, stateMessage: c.stateMessage, progress: c.progress, attempts: c.attempts,
+    testKind: c.testKind, speedRpm: c.speedRpm,
+    channelRoles: c.channelRoles as Record<string, string>, probeScales: c.probeScales as Record<string, number>,
+    notes: c.notes, originalName: c.originalName, sizeBytes: c.sizeBytes, sha256: c.sha256,
+    stationName: found.stationName, uploadedBy: found.uploadedBy,
+    createdAt: c.createdAt.toISOString(), uploadedAt: c.uploadedAt?.toISOString() ?? null, analysedAt: c.analysedAt?.toISOString() ?? null,
+    analysis: analysis
+      ? {
+          analysisVersion: analysis.analysisVersion, overall: analysis.overall, frequencyHz: analysis.frequencyHz,
+          worstThdPercent: analysis.worstThdPercent, vufPercent: analysis.vufPercent, keLineRmsPerKrpm: analysis.keLineRmsPerKrpm,
+          createdAt: analysis.createdAt.toISOString(), report: analysis.report as AnalysisReport,
+        }
+      : null,
+  };
+}
+
+export type WaveformPreview = { timeS: number[]; channels: { id: string; min: number[]; max: number[] }[] };
+export type SpectrumView = { frequencyHz: number; channels: { id: string; role: string; unit: string; orders: number[]; rms: number[] }[] };
+
+/** The plot data of the current analysis, or null until there is one. */
+export async function getCapturePlotView(actor: Actor, captureId: string): Promise<{ preview: WaveformPreview; spectrum: SpectrumView } | null> {
+  const analysis = await getCurrentAnalysis(actor.scope, captureId);
+  if (!analysis?.preview || !analysis.spectrum) return null;
+  return { preview: analysis.preview as WaveformPreview, spectrum: analysis.spectrum as SpectrumView };
+}
+
+export async function getCaptureHistory(actor: Actor, captureId: string) {
+  return listAnalysisHistory(actor.scope, captureId);
+}
+
+/** A short-lived signed link to the raw file, for people (and keys) who may read the capture. */
+export async function getCaptureDownloadUrl(actor: Actor, captureId: string): Promise<string> {
+  const found = await getCaptureDetail(actor.scope, captureId);
+  if (!found) throw new HttpError(404, "No such capture");
+  if (found.capture.state === "uploading") throw new HttpError(409, "The upload of this capture has not been completed");
+  return presignDownload(found.capture.objectKey, found.capture.originalName);
+}
+
+export async function getRecentCaptures(actor: Actor, limit = 50) {
+  return listRecentCaptures(actor.scope, limit);
+}
+
+/** A unit with its captures, their states and verdicts (bench API and unit page). */
+export async function getUnitCapturesBySerial(actor: Actor, serial: string) {
+  const found = await getUnitBySerial(actor.scope, serial);
+  if (!found) return null;
+  const rows = await listCapturesForUnit(actor.scope, found.unit.id);
+  return {
+    id: found.unit.id, serial: found.unit.serial, owner: found.owner, disposition: found.unit.disposition,
+    latestOverall: found.unit.latestOverall, latestCaptureAt: found.unit.latestCaptureAt?.toISOString() ?? null,
+    rating: { modelCode: found.rating.modelCode, title: found.rating.title },
+    captures: rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() })),
+  };
+}

@@ -1,0 +1,33 @@
+import "server-only";
+import type { z } from "zod";
+import { HttpError } from "@/lib/auth/guards";
+
+const MAX_JSON_BYTES = 64 * 1024;
+
+/** Reads a JSON body and parses it with `schema`; anything else is a 400 naming the first problems. */
+export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<z.output<S>> {
+  const text = await request.text();
+  if (text.length > MAX_JSON_BYTES) throw new HttpError(413, `The request body is larger than ${MAX_JSON_BYTES / 1024} KiB`);
+  let raw: unknown;
+  try {
+    raw = text === "" ? {} : JSON.parse(text);
+  } catch {
+    throw new HttpError(400, "The request body is not valid JSON");
+  }
+  return parseInput(schema, raw);
+}
+
+export function parseInput<S extends z.ZodType>(schema: S, raw: unknown): z.output<S> {
+  const parsed = schema.safeParse(raw);
+  if (!parsed.success) {
+    const problems = parsed.error.issues.slice(0, 3).map((i) => (i.path.length ? `${i.path.join(".")}: ${i.message}` : i.message));
+    throw new HttpError(400, problems.join("; "));
+  }
+  return parsed.data;
+}
+
+/** Route ids are uuids; anything else cannot exist, so it is a 404 like a missing row. */
+export function requireUuid(id: string, what: string): string {
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id)) throw new HttpError(404, `No such ${what}`);
+  return id.toLowerCase();
+}

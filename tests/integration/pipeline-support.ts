@@ -1,0 +1,94 @@
+import { spawn, type ChildProcess } from "node:child_process";
+import { createHash } from "node:crypto";
+import { eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { getCaptureDetail } from "@/db/queries/captures";
+import { insertStationKey } from "@/db/queries/station-keys";
+import { listStations } from "@/db/queries/stations";
+import { getUnitBySerial } from "@/db/queries/units";
+import { users, type CaptureState } from "@/db/schema";
+import { generateStationKey } from "@/lib/server/hash";
+import { POST as registerRoute } from "@/app/api/v1/captures/route";
+import { POST as completeRoute } from "@/app/api/v1/captures/[id]/complete/route";
+import type { UploadPlan } from "@/lib/captures/input-schemas";
+
+// Helpers for the pipeline tests: bench-API calls through the real route handlers, a real
+// worker process, and polling of the database (the source of truth).
+
+export const sha256 = (text: string) => createHash("sha256").update(text).digest("hex");
+
+export async function createStationToken(labId: string): Promise<{ token: string; stationId: string }> {
+  const station = (await listStations({ kind: "lab", labId }))[0];
+  const admin = (await getDb().select().from(users).where(eq(users.organisationId, labId)).limit(1))[0];
+  if (!station || !admin) throw new Error("the lab has no bench or no user: run the seed first");
+  const key = generateStationKey();
+  await insertStationKey({ stationId: station.id, prefix: key.prefix, secretHash: key.secretHash, label: "pipeline test", createdById: admin.id });
+  return { token: key.token, stationId: station.id };
+}
+
+export async function unitId(labId: string, serial: string): Promise<string> {
+  const found = await getUnitBySerial({ kind: "lab", labId }, serial);
+  if (!found) throw new Error(`no seeded unit ${serial}`);
+  return found.unit.id;
+}
+
+const jsonRequest = (url: string, token: string, body: unknown) =>
+  new Request(url, { method: "POST", headers: { Authorization: `Bearer ${token}`, "Content-Type": "application/json" }, body: JSON.stringify(body) });
+
+export type Registered = { status: number; body: { capture?: { id: string; state: string }; duplicate?: boolean; upload?: UploadPlan | null; error?: string } };
+
+export async function registerViaApi(token: string, csv: string, meta: Record<string, unknown>): Promise<Registered> {
+  const res = await registerRoute(jsonRequest("http://test/api/v1/captures", token, {
+    testKind: "no-load", fileName: "capture.csv", sizeBytes: Buffer.byteLength(csv), sha256: sha256(csv), ...meta,
+  }));
+  return { status: res.status, body: await res.json() };
+}
+
+/** Register → PUT to the presigned URL → complete, as a bench script would. */
+export async function uploadViaApi(token: string, csv: string, meta: Record<string, unknown>) {
+  const reg = await registerViaApi(token, csv, meta);
+  if (!reg.body.capture) throw new Error(`register failed: ${reg.status} ${reg.body.error}`);
+  const upload = reg.body.upload;
+  if (upload?.kind === "single") {
+    const put = await fetch(upload.url, { method: "PUT", headers: upload.headers, body: csv });
+    if (!put.ok) throw new Error(`PUT failed: ${put.status}`);
+  }
+  const id = reg.body.capture.id;
+  const done = await completeRoute(jsonRequest(`http://test/api/v1/captures/${id}/complete`, token, {}), { params: Promise.resolve({ id }) });
+  return { id, register: reg, completeStatus: done.status, complete: (await done.json()) as { state?: string; error?: string } };
+}
+
+export async function waitForState(labId: string, captureId: string, states: CaptureState[], timeoutMs = 45_000) {
+  const until = Date.now() + timeoutMs;
+  for (;;) {
+    const found = await getCaptureDetail({ kind: "lab", labId }, captureId);
+    if (found && states.includes(found.capture.state)) return found.capture;
+    if (Date.now() > until) throw new Error(`capture ${captureId} stayed ${found?.capture.state} (${found?.capture.stateMessage ?? ""})`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
+
+export type WorkerProcess = { proc: ChildProcess; output: () => string; stop: () => Promise<void>; kill: () => Promise<void> };
+
+/** Starts `node --import tsx worker/index.ts` on the test env and waits until it says it is ready. */
+export async function startWorker(extraEnv: Record<string, string> = {}): Promise<WorkerProcess> {
+  const proc = spawn(process.execPath, ["--import", "tsx", "worker/index.ts"], {
+    env: { ...process.env, WORKER_LOCK_MS: "3000", WORKER_SWEEP_INTERVAL_S: "2", ...extraEnv },
+    stdio: ["ignore", "pipe", "pipe"],
+  });
+  let out = "";
+  proc.stdout?.on("data", (d: Buffer) => (out += d.toString()));
+  proc.stderr?.on("data", (d: Buffer) => (out += d.toString()));
+  const exited = new Promise<void>((resolve) => proc.once("exit", () => resolve()));
+  const until = Date.now() + 30_000;
+  while (!out.includes("ready:")) {
+    if (proc.exitCode !== null || Date.now() > until) throw new Error(`the worker did not start:\n${out}`);
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  return {
+    proc,
+    output: () => out,
+    stop: async () => { if (proc.exitCode === null) proc.kill("SIGTERM"); await exited; },
+    kill: async () => { if (proc.exitCode === null) proc.kill("SIGKILL"); await exited; },
+  };
+}

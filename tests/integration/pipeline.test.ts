@@ -1,0 +1,58 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { closeDb } from "@/db/client";
+import { getCurrentAnalysis } from "@/db/queries/analyses";
+import { getUnit } from "@/db/queries/units";
+import { closeAnalysisQueue } from "@/lib/server/queue";
+import { makeBrokenCsv, makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
+import { seededOrgs } from "./helpers";
+import { createStationToken, startWorker, unitId, uploadViaApi, waitForState, type WorkerProcess } from "./pipeline-support";
+
+let worker: WorkerProcess;
+let labId: string;
+let token: string;
+const run = Date.now();
+
+beforeAll(async () => {
+  labId = (await seededOrgs()).lab.id;
+  token = (await createStationToken(labId)).token;
+  worker = await startWorker();
+});
+
+afterAll(async () => {
+  await worker?.stop();
+  await closeAnalysisQueue();
+  await closeDb();
+});
+
+describe("bench API upload → queue → worker → PostgreSQL", () => {
+  it("uploadViaApi(a clean 400 V capture) ends analysed with report, columns, preview, spectrum and the unit's verdict", async () => {
+    const csv = makeThreePhaseCsv({ variant: run % 1000 });
+    const { id, completeStatus, complete } = await uploadViaApi(token, csv, { unitSerial: "KG45-260301", speedRpm: 1500 });
+    expect(completeStatus).toBe(202);
+    expect(complete.state).toBe("queued");
+    const capture = await waitForState(labId, id, ["analysed", "rejected", "failed"]);
+    expect(capture.state, capture.stateMessage ?? "").toBe("analysed");
+    expect(capture.progress).toBe(100);
+    const analysis = await getCurrentAnalysis({ kind: "lab", labId }, id);
+    expect(analysis?.frequencyHz).toBeCloseTo(50, 3);
+    expect(analysis?.vufPercent).toBeLessThan(0.1);
+    expect(analysis?.worstThdPercent).toBeCloseTo(1, 1);
+    const preview = analysis?.preview as { timeS: number[]; channels: { id: string; min: number[] }[] };
+    expect(preview.channels.map((c) => c.id)).toEqual(["V_AN (V)", "V_BN (V)", "V_CN (V)"]);
+    expect(preview.timeS.length).toBeGreaterThan(100);
+    const spectrum = analysis?.spectrum as { channels: { orders: number[] }[] };
+    expect(spectrum.channels[0]?.orders[0]).toBe(1);
+    const unit = await getUnit({ kind: "lab", labId }, await unitId(labId, "KG45-260301"));
+    expect(unit?.unit.latestOverall).toBe(analysis?.overall);
+  });
+
+  it("a CSV whose body turns non-numeric ends rejected with the engine's located message, never retried", async () => {
+    const { id, completeStatus } = await uploadViaApi(token, makeBrokenCsv(run % 1000), { unitSerial: "KG45-260302" });
+    expect(completeStatus).toBe(202);
+    const capture = await waitForState(labId, id, ["analysed", "rejected", "failed"]);
+    expect(capture.state).toBe("rejected");
+    // Line 501 of the file: two preamble lines, the header, then data (index 500 of the lines).
+    expect(capture.stateMessage).toMatch(/Not a number: "oops" \(line 501, column "V_BN \(V\)"\)/);
+    expect(capture.attempts).toBe(1);
+  });
+});

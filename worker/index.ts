@@ -1,0 +1,79 @@
+import path from "node:path";
+import { Worker, type Job } from "bullmq";
+import { closeDb } from "@/db/client";
+import { setCaptureState } from "@/db/queries/captures";
+import { getEnv } from "@/lib/server/env";
+import { ANALYSIS_QUEUE, closeAnalysisQueue, createRedis, type AnalysisJobData } from "@/lib/server/queue";
+import { sweepAbandonedCaptures } from "./recovery";
+
+// The analysis worker: its own process beside the web app (`npm run worker`, or `node --import tsx worker/index.ts`).
+// Parsing and analysis run in sandboxed child processes, one per concurrent job.
+
+const env = getEnv();
+const log = (message: string) => console.log(`${new Date().toISOString()} worker: ${message}`);
+
+const connection = createRedis("worker");
+const processorFile = path.join(import.meta.dirname, "processors", "analyse-capture.ts");
+
+const worker = new Worker<AnalysisJobData>(ANALYSIS_QUEUE, processorFile, {
+  connection,
+  prefix: env.QUEUE_PREFIX,
+  concurrency: env.WORKER_CONCURRENCY,
+  lockDuration: env.WORKER_LOCK_MS,
+  stalledInterval: env.WORKER_LOCK_MS,
+  // A job whose worker died is taken over by the next stalled check, twice at most.
+  maxStalledCount: 2,
+});
+
+worker.on("error", (err) => console.error(`worker error: ${err.message}`));
+worker.on("completed", (job: Job<AnalysisJobData>, result: unknown) => log(`${job.id} ${JSON.stringify(result)}`));
+worker.on("failed", (job: Job<AnalysisJobData> | undefined, err: Error) => {
+  if (!job) return;
+  const final = err.name === "UnrecoverableError" || job.attemptsMade >= (job.opts.attempts ?? 1);
+  log(`${job.id} failed (attempt ${job.attemptsMade}${final ? ", final" : ""}): ${err.message}`);
+  if (!final) return;
+  // The processor records its own outcomes; this covers a child process that died before it could.
+  void setCaptureState({ kind: "lab", labId: job.data.labId }, job.data.captureId, "failed", ["queued", "analysing"], {
+    progress: 0,
+    stateMessage: `Analysis failed: ${err.message}. It can be re-run once the cause is fixed.`,
+  }).catch((e: unknown) => console.error(`could not record the failure of ${job.id}: ${String(e)}`));
+});
+
+async function sweep(reason: string): Promise<void> {
+  try {
+    const r = await sweepAbandonedCaptures();
+    if (r.requeued || r.markedFailed) log(`sweep (${reason}): ${r.checked} waiting, ${r.requeued} re-enqueued, ${r.markedFailed} marked failed`);
+  } catch (err) {
+    console.error(`sweep (${reason}) failed: ${err instanceof Error ? err.message : String(err)}`);
+  }
+}
+
+const sweepTimer = setInterval(() => void sweep("periodic"), env.WORKER_SWEEP_INTERVAL_S * 1000);
+void worker.waitUntilReady().then(async () => {
+  log(`ready: queue ${env.QUEUE_PREFIX}:${ANALYSIS_QUEUE}, concurrency ${env.WORKER_CONCURRENCY}`);
+  await sweep("start");
+});
+
+let stopping = false;
+async function shutdown(signal: string): Promise<void> {
+  if (stopping) {
+    log(`${signal} again: exiting now`);
+    process.exit(1);
+  }
+  stopping = true;
+  log(`${signal}: finishing the running jobs, then stopping`);
+  clearInterval(sweepTimer);
+  try {
+    await worker.close();
+    await closeAnalysisQueue();
+    await connection.quit();
+    await closeDb();
+  } catch (err) {
+    console.error(`shutdown: ${err instanceof Error ? err.message : String(err)}`);
+    process.exitCode = 1;
+  }
+  log("stopped");
+}
+
+process.on("SIGTERM", () => void shutdown("SIGTERM"));
+process.on("SIGINT", () => void shutdown("SIGINT"));

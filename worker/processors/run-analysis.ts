@@ -1,0 +1,105 @@
+import { createHash } from "node:crypto";
+import {
+  analyseCapture, CaptureRejection, computeWaveformEnvelope, createCaptureParser, ratingSchema, toleranceProfileSchema,
+  type AnalysisReport, type ChannelRole,
+} from "@/lib/analysis";
+import type { NewAnalysis } from "@/db/queries/analyses";
+import type { Capture, Rating } from "@/db/schema";
+import { getEnv } from "@/lib/server/env";
+import { sha256Hex } from "@/lib/server/hash";
+import { isPreconditionFailed, openObjectStream } from "@/lib/server/storage";
+
+/** Points per channel in the stored waveform preview: enough for a full-width plot, small as JSON. */
+export const PREVIEW_BUCKETS = 2000;
+
+/** A problem with the stored rating, not with the capture: retrying cannot help, but it is no rejection either. */
+export class ConfigurationProblem extends Error {
+  override name = "ConfigurationProblem";
+}
+
+const round = (v: number) => (Number.isFinite(v) ? Number(v.toPrecision(6)) : 0);
+
+function toleranceDigest(rating: Rating): string {
+  return sha256Hex(JSON.stringify({ nameplate: rating.nameplate, tolerance: rating.tolerance }));
+}
+
+function spectrumOf(report: AnalysisReport) {
+  return {
+    frequencyHz: report.frequencyHz,
+    channels: report.channels.map((c) => ({
+      id: c.id, role: c.role, unit: c.unit,
+      orders: [1, ...c.harmonics.map((h) => h.order)],
+      rms: [round(c.fundamental.rms), ...c.harmonics.map((h) => round(h.rms))],
+    })),
+  };
+}
+
+function worstThd(report: AnalysisReport): number | null {
+  const values = report.channels.filter((c) => c.unit === "V").map((c) => c.thdFPercent).filter((v): v is number => v !== null);
+  return values.length > 0 ? Math.max(...values) : null;
+}
+
+/**
+ * Streams the raw object, checks it against the sha256 recorded at upload, parses and analyses it.
+ * Progress runs 0–80 while reading (the parse happens as bytes arrive), then 90 once analysed.
+ * Throws CaptureRejection for input the engine or the integrity check refuses.
+ */
+export async function runAnalysis(capture: Capture, rating: Rating, onProgress: (percent: number) => void): Promise<NewAnalysis> {
+  const nameplate = ratingSchema.safeParse(rating.nameplate);
+  const tolerance = toleranceProfileSchema.safeParse(rating.tolerance);
+  if (!nameplate.success || !tolerance.success) {
+    throw new ConfigurationProblem(`The rating ${rating.modelCode} is incomplete or invalid: fix it, then re-run the analysis`);
+  }
+  const probeScales = capture.probeScales as Record<string, number>;
+  const calibration = Object.fromEntries(Object.entries(probeScales).map(([id, scale]) => [id, { scale }]));
+  const parser = createCaptureParser({ calibration, maxBytes: getEnv().UPLOAD_MAX_BYTES, expectedBytes: capture.sizeBytes });
+  const hash = createHash("sha256");
+  let read = 0;
+  try {
+    const stream = await openObjectStream(capture.objectKey, capture.objectEtag ?? undefined);
+    for await (const chunk of stream as AsyncIterable<Uint8Array>) {
+      hash.update(chunk);
+      parser.push(chunk);
+      read += chunk.length;
+      onProgress((80 * read) / Math.max(1, capture.sizeBytes));
+    }
+  } catch (err) {
+    if (isPreconditionFailed(err)) {
+      throw new CaptureRejection("object-changed", "The stored file changed after its upload was completed: upload it again as a new capture");
+    }
+    throw err;
+  }
+  if (read !== capture.sizeBytes || hash.digest("hex") !== capture.sha256) {
+    throw new CaptureRejection(
+      "checksum-mismatch",
+      `The stored file (${read} bytes) does not match the sha256 and size given at upload: upload the file again`,
+    );
+  }
+  const parsed = parser.finish();
+  const report = analyseCapture(parsed, {
+    channelRoles: capture.channelRoles as Record<string, ChannelRole>,
+    speedRpm: capture.speedRpm ?? undefined,
+    poles: nameplate.data.poles,
+    rating: nameplate.data,
+    tolerance: tolerance.data,
+  });
+  onProgress(90);
+  const envelope = computeWaveformEnvelope(parsed, PREVIEW_BUCKETS);
+  const preview = {
+    timeS: envelope.timeS.map(round),
+    channels: envelope.channels.map((c) => ({ id: c.id, min: c.min.map(round), max: c.max.map(round) })),
+  };
+  return {
+    captureId: capture.id,
+    analysisVersion: report.analysisVersion,
+    toleranceDigest: toleranceDigest(rating),
+    report,
+    overall: report.overall,
+    frequencyHz: report.frequencyHz,
+    worstThdPercent: worstThd(report),
+    vufPercent: report.threePhase?.unbalance.vufPercent ?? null,
+    keLineRmsPerKrpm: report.backEmf?.keLineRmsPerKrpm ?? null,
+    preview,
+    spectrum: spectrumOf(report),
+  };
+}
