@@ -15,7 +15,16 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
   const history = await getUnitHistoryView(unit.id);
   return (
     <>
-      <PageHeader title={`Unit ${unit.serial}`} lead={`${rating.modelCode} · ${rating.title} · ${owner}`} />
+      <PageHeader
+        title={`Unit ${unit.serial}`}
+        lead={`${rating.modelCode} · ${rating.title} · ${owner}`}
+        actions={
+          <>
+            <a href={`/api/units/${unit.id}/report.pdf`} className="rounded-md bg-copper-600 px-3 py-2 text-sm font-semibold text-white no-underline">Test record (PDF)</a>
+            <a href={`/api/units/${unit.id}/report.csv`} className="rounded-md bg-white px-3 py-2 text-sm font-semibold no-underline ring-1 ring-ink-200">Verdicts (CSV)</a>
+          </>
+        }
+      />
       <dl className="grid grid-cols-2 gap-4 rounded-lg bg-white p-5 text-sm shadow-sm ring-1 ring-ink-200 md:grid-cols-4">
         <div><dt className="text-ink-600">Latest verdict</dt><dd className="mt-1"><StatusTag status={unit.latestOverall} /></dd></div>
         <div><dt className="text-ink-600">Disposition</dt><dd className="mt-1 font-semibold">{unit.disposition}</dd></div>

@@ -1,0 +1,19 @@
+import { errorResponse, HttpError } from "@/lib/auth/guards";
+import { getUnitRecord } from "@/lib/dal/unit-report";
+import { renderUnitCsv } from "@/lib/server/reports/unit-csv";
+
+export async function GET(_request: Request, { params }: { params: Promise<{ id: string }> }) {
+  try {
+    const record = await getUnitRecord((await params).id);
+    if (!record) throw new HttpError(404, "No such unit.");
+    return new Response(renderUnitCsv(record), {
+      headers: {
+        "content-type": "text/csv; charset=utf-8",
+        "content-disposition": `attachment; filename="emfolio-${record.serial.replace(/[^\w.-]/g, "_")}.csv"`,
+        "cache-control": "private, no-store",
+      },
+    });
+  } catch (err) {
+    return errorResponse(err);
+  }
+}

@@ -1,0 +1,25 @@
+import type { UnitRecord } from "@/lib/dal/unit-report";
+
+const COLUMNS = ["serial", "model", "capture_id", "captured_at_utc", "test_kind", "speed_rpm", "analysis_version", "check", "label", "measured", "unit", "lower", "upper", "status", "basis"] as const;
+
+function cell(value: unknown): string {
+  if (value === null || value === undefined) return "";
+  const text = typeof value === "number" ? String(Number(value.toPrecision(8))) : String(value);
+  // Quote per RFC 4180, and defuse spreadsheet formulas in text cells.
+  const safe = /^[=+\-@\t\r]/.test(text) && typeof value !== "number" ? `'${text}` : text;
+  return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
+}
+
+/** One row per verdict of every current analysis: the machine-readable twin of the PDF record. */
+export function renderUnitCsv(record: UnitRecord): string {
+  const lines = [COLUMNS.join(",")];
+  for (const c of record.captures) {
+    for (const v of c.report.verdicts) {
+      lines.push([
+        record.serial, record.modelCode, c.captureId, c.createdAt.toISOString(), c.testKind, c.speedRpm, c.analysisVersion,
+        v.check, v.label, v.measured, v.unit, v.lower, v.upper, v.status, v.basis,
+      ].map(cell).join(","));
+    }
+  }
+  return `${lines.join("\r\n")}\r\n`;
+}
