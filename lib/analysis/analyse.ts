@@ -17,11 +17,16 @@ import type { ChannelRole, ParsedCapture, QualityWarning } from "./types";
 
 const MIN_CYCLES = 2;
 const FEW_CYCLES = 5;
+/**
+ * Harmonics are taken over at most this many samples (whole cycles from the start): the spectrum of a
+ * steady machine settles long before, and O(N·H) work on 10^7 samples would dominate the run.
+ */
+const HARMONIC_WINDOW_SAMPLES = 1 << 19;
 const REFERENCE_ORDER: ChannelRole[] = ["van", "vab", "v", "vbn", "vbc", "vcn", "vca", "ia", "ib", "ic"];
 
 /** Frequency of the reference channel: coarse FFT (or zero crossings), then phase-drift refinement. */
 function measureFrequency(samples: Float64Array, sampleRateHz: number, id: string, warnings: QualityWarning[]): { frequencyHz: number; zeroCrossingHz: number | null } {
-  const { mean } = spanMoments(samples, 0, samples.length - 2);
+  const { mean } = spanMoments(samples, 0, samples.length);
   let amplitude = 0;
   for (let n = 0; n < samples.length; n++) amplitude = Math.max(amplitude, Math.abs((samples[n] as number) - mean));
   const crossings = estimateByZeroCrossings(samples, sampleRateHz, mean, amplitude);
@@ -71,7 +76,9 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
       message: `At ${sampleRateHz.toPrecision(5)} S/s harmonics stop at order ${highest} (fs must exceed 2·H·f1 = ${(2 * opts.harmonics * frequencyHz).toPrecision(5)} S/s for H = ${opts.harmonics})`,
     });
   }
-  const context = { sampleRateHz, frequencyHz, window, maxOrder: opts.harmonics, groupingIec: opts.groupingIec, deviationBasis: opts.deviationBasis };
+  const harmonicCycles = Math.max(Math.min(window.cycles, 10), Math.floor(HARMONIC_WINDOW_SAMPLES / (sampleRateHz / frequencyHz)));
+  const harmonicWindow = wholeCycleWindow(capture.sampleCount, sampleRateHz, frequencyHz, 0, harmonicCycles) ?? window;
+  const context = { sampleRateHz, frequencyHz, window, harmonicWindow, maxOrder: opts.harmonics, groupingIec: opts.groupingIec, deviationBasis: opts.deviationBasis };
   const analyses: ChannelAnalysis[] = capture.channels.map((channel, index) => analyseChannel(channel, roles[index] as ChannelRole, context));
   for (const analysis of analyses) warnings.push(...analysis.warnings);
   const threePhase = analyseThreePhase(analyses, window);
@@ -88,6 +95,7 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
     sampleCount: capture.sampleCount,
     durationS: capture.sampleCount / sampleRateHz,
     cyclesAnalysed: window.cycles,
+    harmonicCycles: harmonicWindow.cycles,
     frequencyZeroCrossingHz: finiteOrNull(zeroCrossingHz),
     referenceChannel: reference.id,
     ...measured,

@@ -14,6 +14,8 @@ export interface ChannelContext {
   sampleRateHz: number;
   frequencyHz: number;
   window: CycleWindow;
+  /** The leading part of `window` used for harmonics, phasors and the deviation factor. */
+  harmonicWindow: CycleWindow;
   maxOrder: number;
   groupingIec: boolean;
   deviationBasis: DeviationBasis;
@@ -23,7 +25,7 @@ export interface ChannelAnalysis {
   channel: CaptureChannel;
   role: ChannelRole;
   report: ChannelReport;
-  /** Peak phasor of the fundamental, referred to the window's first sample. */
+  /** Peak phasor of the fundamental, referred to the first sample of the harmonic window. */
   fundamental: Complex;
   warnings: QualityWarning[];
 }
@@ -38,7 +40,7 @@ export function isVoltageRole(role: ChannelRole): boolean {
 
 /** Everything the report says about one channel, over the shared whole-cycle window. */
 export function analyseChannel(channel: CaptureChannel, role: ChannelRole, context: ChannelContext): ChannelAnalysis {
-  const { sampleRateHz, frequencyHz, window } = context;
+  const { sampleRateHz, frequencyHz, window, harmonicWindow } = context;
   const x = channel.samples;
   const warnings: QualityWarning[] = [];
   const { mean: dc, meanSquare } = spanMoments(x, window.start, window.spanSamples);
@@ -50,7 +52,7 @@ export function analyseChannel(channel: CaptureChannel, role: ChannelRole, conte
     const magnitudeNow = Math.abs(x[n] as number);
     if (magnitudeNow > peak) peak = magnitudeNow;
   }
-  const components = computeHarmonics(x, sampleRateHz, frequencyHz, window, context.maxOrder);
+  const components = computeHarmonics(x, sampleRateHz, frequencyHz, harmonicWindow, context.maxOrder);
   const first = components[0];
   const fundamental = first?.phasor ?? { re: 0, im: 0 };
   const fundamentalRms = first?.rms ?? 0;
@@ -62,14 +64,14 @@ export function analyseChannel(channel: CaptureChannel, role: ChannelRole, conte
   const voltage = isVoltageRole(role);
   const lines = components.map((c) => ({ frequencyHz: c.frequencyHz, rms: c.rms }));
   const tifApplies = voltage && frequencyHz >= 55 && frequencyHz <= 65;
-  const groups = context.groupingIec ? computeHarmonicGroups(x, sampleRateHz, frequencyHz, window, context.maxOrder) : null;
+  const groups = context.groupingIec ? computeHarmonicGroups(x, sampleRateHz, frequencyHz, harmonicWindow, context.maxOrder) : null;
   if (context.groupingIec && groups === null) {
     warnings.push({ code: "grouping-too-short", message: `Channel "${channel.id}": too few cycles for one IEC 61000-4-7 window (10 or 12 cycles)` });
   }
   const groupedFundamental = groups?.[0]?.rms ?? 0;
   const grouped = groups ? computeThd(groupedFundamental, groups.slice(1).map((g) => g.rms)).thdFPercent : null;
   const deviation = voltage
-    ? computeDeviationFactor(x, sampleRateHz, frequencyHz, window, dc, acRms, Math.atan2(fundamental.im, fundamental.re), context.deviationBasis)
+    ? computeDeviationFactor(x, sampleRateHz, frequencyHz, harmonicWindow, dc, acRms, Math.atan2(fundamental.im, fundamental.re), context.deviationBasis)
     : null;
   const clipping = clippingWarning(channel.id, x, sampleRateHz / frequencyHz);
   if (clipping) warnings.push(clipping);

@@ -9,12 +9,12 @@ export interface CycleWindow {
 }
 
 /**
- * The longest run of whole cycles from `start` that fits the record (one sample is kept in
- * hand past the end for the fractional tail). Null when not even one cycle fits.
+ * The longest run of whole cycles from `start` that fits the record (a span ending between
+ * samples reads one sample past its end). Null when not even one cycle fits.
  */
 export function wholeCycleWindow(sampleCount: number, sampleRateHz: number, frequencyHz: number, start = 0, maxCycles = Infinity): CycleWindow | null {
   const samplesPerCycle = sampleRateHz / frequencyHz;
-  let cycles = Math.min(maxCycles, Math.floor((sampleCount - start - 2) / samplesPerCycle));
+  let cycles = Math.min(maxCycles, Math.floor((sampleCount - start) / samplesPerCycle + 1e-6));
   while (cycles >= 1 && !spanFits(sampleCount, start, cycles * samplesPerCycle)) cycles--;
   if (cycles < 1) return null;
   return { start, spanSamples: cycles * samplesPerCycle, cycles };

@@ -91,7 +91,7 @@ export function refineFrequency(samples: Float64Array, sampleRateHz: number, est
   let finalRounds = 0;
   for (let step = 0; step < 40 && finalRounds < 2; step++) {
     const samplesPerCycle = sampleRateHz / frequency;
-    const totalCycles = Math.floor((samples.length - 2) / samplesPerCycle);
+    const totalCycles = Math.floor(samples.length / samplesPerCycle);
     const maxHalf = Math.floor(totalCycles / 2);
     if (maxHalf < 1) return frequency;
     if (cycles >= maxHalf) {

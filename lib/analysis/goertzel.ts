@@ -11,23 +11,45 @@
 
 const BLOCK = 5;
 
+/** Spans within this of an integer number of samples are taken as integer. */
+const INTEGER_SLACK = 1e-6;
+
 export interface SpanWeights {
-  /** Integer part of the span. */
+  /** Samples summed with unit weight: offsets 0..whole−1 from the start. */
   whole: number;
-  /** Weight of sample `start + whole` and `start + whole + 1`. */
-  tailA: number;
-  tailB: number;
+  /** Weight corrections on top of the unit weights, by offset from the start. */
+  edges: { offset: number; weight: number }[];
 }
 
-export function spanWeights(spanSamples: number): SpanWeights {
-  const whole = Math.floor(spanSamples);
-  const r = spanSamples - whole;
-  return { whole, tailA: 0.5 + r - (r * r) / 2, tailB: (r * r) / 2 };
+/**
+ * Trapezoid over [0, whole] plus the linear piece over the final fraction r: corrections −½ at
+ * offset 0, ½ + r − r²/2 at `whole`, r²/2 at `whole + 1`. A span of exactly `whole` samples that
+ * ends with the record uses plain unit weights: over whole periods that is the periodic trapezoid.
+ */
+export function spanWeights(sampleCount: number, start: number, spanSamples: number): SpanWeights {
+  let whole = Math.floor(spanSamples);
+  let r = spanSamples - whole;
+  if (r > 1 - INTEGER_SLACK) {
+    whole += 1;
+    r = 0;
+  } else if (r < INTEGER_SLACK) {
+    r = 0;
+  }
+  if (r === 0 && start + whole === sampleCount) return { whole, edges: [] };
+  const edges = [
+    { offset: 0, weight: -0.5 },
+    { offset: whole, weight: 0.5 + r - (r * r) / 2 },
+  ];
+  if (r > 0) edges.push({ offset: whole + 1, weight: (r * r) / 2 });
+  return { whole, edges };
 }
 
-/** Samples a span reads: it needs one sample beyond its end. */
+/** True when every sample a span reads lies inside the record. */
 export function spanFits(sampleCount: number, start: number, spanSamples: number): boolean {
-  return start >= 0 && start + Math.floor(spanSamples) + 1 < sampleCount;
+  if (start < 0 || !(spanSamples >= 1)) return false;
+  const { whole, edges } = spanWeights(sampleCount, start, spanSamples);
+  const last = edges.reduce((furthest, edge) => Math.max(furthest, edge.offset), whole - 1);
+  return start + last < sampleCount;
 }
 
 /**
@@ -36,25 +58,54 @@ export function spanFits(sampleCount: number, start: number, spanSamples: number
  */
 export function spanPhasors(samples: Float64Array, start: number, spanSamples: number, omegas: readonly number[]): Float64Array {
   const out = new Float64Array(2 * omegas.length);
-  const { whole, tailA, tailB } = spanWeights(spanSamples);
-  const first = samples[start] as number;
-  const atEnd = samples[start + whole] as number;
-  const pastEnd = samples[start + whole + 1] as number;
+  const { whole, edges } = spanWeights(samples.length, start, spanSamples);
   const scale = 2 / spanSamples;
   for (let group = 0; group < omegas.length; group += BLOCK) {
     const w = Array.from({ length: BLOCK }, (_, k) => omegas[group + k] ?? 0);
-    const sums = goertzelBlock(samples, start, whole, w);
+    const sums = omegas.length - group === 1 ? goertzelSingle(samples, start, whole, w[0] as number) : goertzelBlock(samples, start, whole, w);
     for (let k = 0; k < BLOCK && group + k < omegas.length; k++) {
       const omega = w[k] as number;
-      // Σ_{n<whole} with unit weights, then the trapezoid corrections at n = 0, whole, whole + 1.
-      let re = (sums[2 * k] as number) - 0.5 * first;
+      let re = sums[2 * k] as number;
       let im = sums[2 * k + 1] as number;
-      re += tailA * atEnd * Math.cos(omega * whole) + tailB * pastEnd * Math.cos(omega * (whole + 1));
-      im -= tailA * atEnd * Math.sin(omega * whole) + tailB * pastEnd * Math.sin(omega * (whole + 1));
+      for (const { offset, weight } of edges) {
+        const value = weight * (samples[start + offset] as number);
+        re += value * Math.cos(omega * offset);
+        im -= value * Math.sin(omega * offset);
+      }
       out[2 * (group + k)] = re * scale;
       out[2 * (group + k) + 1] = im * scale;
     }
   }
+  return out;
+}
+
+/** One frequency alone (the frequency refinement): the same recursion without idle lanes. */
+function goertzelSingle(x: Float64Array, start: number, count: number, omega: number): Float64Array {
+  const c = 2 * Math.cos(omega);
+  let p = 0;
+  let q = 0;
+  const end = start + count;
+  for (let n = start; n < end; n++) {
+    const r = (x[n] as number) + c * p - q;
+    q = p;
+    p = r;
+  }
+  return rotateGoertzel([[p, q]], [omega], count);
+}
+
+/** y = s_{N−1} − e^{−jω}·s_{N−2} equals Σ x_n e^{jω(N−1−n)}; rotating by e^{−jω(N−1)} gives Σ x_n e^{−jωn}. */
+function rotateGoertzel(states: readonly (readonly [number, number])[], omegas: readonly number[], count: number): Float64Array {
+  const out = new Float64Array(2 * states.length);
+  states.forEach(([s1, s2], k) => {
+    const omega = omegas[k] as number;
+    const yRe = s1 - Math.cos(omega) * s2;
+    const yIm = Math.sin(omega) * s2;
+    const turn = omega * (count - 1);
+    const cosT = Math.cos(turn);
+    const sinT = Math.sin(turn);
+    out[2 * k] = yRe * cosT + yIm * sinT;
+    out[2 * k + 1] = yIm * cosT - yRe * sinT;
+  });
   return out;
 }
 
@@ -85,25 +136,12 @@ function goertzelBlock(x: Float64Array, start: number, count: number, w: readonl
     q4 = p4;
     p4 = r4;
   }
-  const out = new Float64Array(10);
-  const states = [[p0, q0], [p1, q1], [p2, q2], [p3, q3], [p4, q4]] as const;
-  states.forEach(([s1, s2], k) => {
-    const omega = w[k] as number;
-    // y = s_{N−1} − e^{−jω} s_{N−2} equals Σ x_n e^{jω(N−1−n)}; rotate by e^{−jω(N−1)}.
-    const yRe = s1 - Math.cos(omega) * s2;
-    const yIm = Math.sin(omega) * s2;
-    const turn = omega * (count - 1);
-    const cosT = Math.cos(turn);
-    const sinT = Math.sin(turn);
-    out[2 * k] = yRe * cosT + yIm * sinT;
-    out[2 * k + 1] = yIm * cosT - yRe * sinT;
-  });
-  return out;
+  return rotateGoertzel([[p0, q0], [p1, q1], [p2, q2], [p3, q3], [p4, q4]], w, count);
 }
 
 /** Trapezoid-weighted means of x and x² over a span (same weights as `spanPhasors`). */
 export function spanMoments(samples: Float64Array, start: number, spanSamples: number): { mean: number; meanSquare: number } {
-  const { whole, tailA, tailB } = spanWeights(spanSamples);
+  const { whole, edges } = spanWeights(samples.length, start, spanSamples);
   let sum = 0;
   let sumSquares = 0;
   const end = start + whole;
@@ -112,26 +150,19 @@ export function spanMoments(samples: Float64Array, start: number, spanSamples: n
     sum += v;
     sumSquares += v * v;
   }
-  const first = samples[start] as number;
-  const atEnd = samples[end] as number;
-  const pastEnd = samples[end + 1] as number;
-  sum += -0.5 * first + tailA * atEnd + tailB * pastEnd;
-  sumSquares += -0.5 * first * first + tailA * atEnd * atEnd + tailB * pastEnd * pastEnd;
+  for (const { offset, weight } of edges) {
+    const v = samples[start + offset] as number;
+    sum += weight * v;
+    sumSquares += weight * v * v;
+  }
   return { mean: sum / spanSamples, meanSquare: sumSquares / spanSamples };
 }
 
-/** Trapezoid-weighted mean of f(x_n, y_n) over a span: for power (x·y) and derived line voltages. */
-export function spanPairMean(
-  x: Float64Array,
-  y: Float64Array,
-  start: number,
-  spanSamples: number,
-  kind: "product" | "difference-squared",
-): number {
-  const { whole, tailA, tailB } = spanWeights(spanSamples);
-  const f = kind === "product" ? (a: number, b: number) => a * b : (a: number, b: number) => (a - b) * (a - b);
-  let sum = 0;
+/** Trapezoid-weighted mean of x·y or (x − y)² over a span: for power and derived line voltages. */
+export function spanPairMean(x: Float64Array, y: Float64Array, start: number, spanSamples: number, kind: "product" | "difference-squared"): number {
+  const { whole, edges } = spanWeights(x.length, start, spanSamples);
   const end = start + whole;
+  let sum = 0;
   if (kind === "product") {
     for (let n = start; n < end; n++) sum += (x[n] as number) * (y[n] as number);
   } else {
@@ -140,7 +171,10 @@ export function spanPairMean(
       sum += d * d;
     }
   }
-  const value = (n: number): number => f(x[n] as number, y[n] as number);
-  sum += -0.5 * value(start) + tailA * value(end) + tailB * value(end + 1);
+  for (const { offset, weight } of edges) {
+    const a = x[start + offset] as number;
+    const b = y[start + offset] as number;
+    sum += weight * (kind === "product" ? a * b : (a - b) * (a - b));
+  }
   return sum / spanSamples;
 }

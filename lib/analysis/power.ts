@@ -52,18 +52,15 @@ export function computePhasePower(input: PowerInput, window: CycleWindow): Phase
 
 /** RMS of ia + ib + ic (the neutral current of a four-wire system) over the window. */
 export function neutralCurrentRms(a: Float64Array, b: Float64Array, c: Float64Array, window: CycleWindow): number {
-  const { whole, tailA, tailB } = spanWeights(window.spanSamples);
+  const { whole, edges } = spanWeights(a.length, window.start, window.spanSamples);
   const square = (n: number): number => {
     const s = (a[n] as number) + (b[n] as number) + (c[n] as number);
     return s * s;
   };
   const end = window.start + whole;
   let sum = 0;
-  for (let n = window.start; n < end; n++) {
-    const s = (a[n] as number) + (b[n] as number) + (c[n] as number);
-    sum += s * s;
-  }
-  sum += -0.5 * square(window.start) + tailA * square(end) + tailB * square(end + 1);
+  for (let n = window.start; n < end; n++) sum += square(n);
+  for (const { offset, weight } of edges) sum += weight * square(window.start + offset);
   return Math.sqrt(Math.max(0, sum / window.spanSamples));
 }
 

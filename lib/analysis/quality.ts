@@ -16,18 +16,18 @@ export function detectClipping(samples: Float64Array, samplesPerCycle: number): 
   const threshold = Math.max(4, Math.ceil(0.02 * samplesPerCycle));
   let runs = 0;
   let longestRun = 0;
-  let length = 0;
-  let level = Number.NaN;
-  for (let n = 0; n <= samples.length; n++) {
-    const v = n < samples.length ? (samples[n] as number) : Number.NaN;
-    if ((v === max || v === min) && v === level) {
-      length++;
+  let run = 0;
+  let previous = Number.NaN;
+  for (let n = 0; n < samples.length; n++) {
+    const v = samples[n] as number;
+    if (v === max || v === min) {
+      run = v === previous ? run + 1 : 1;
+      if (run === threshold) runs++;
+      if (run > longestRun) longestRun = run;
     } else {
-      if (length >= threshold) runs++;
-      if (length > longestRun) longestRun = length;
-      length = v === max || v === min ? 1 : 0;
-      level = v;
+      run = 0;
     }
+    previous = v;
   }
   return { runs, longestRun: runs > 0 ? longestRun : 0 };
 }

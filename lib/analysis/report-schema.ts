@@ -96,6 +96,8 @@ export const analysisReportSchema = z.object({
   sampleCount: z.number().int(),
   durationS: finite,
   cyclesAnalysed: z.number().int(),
+  /** Whole cycles (from the start) behind harmonics, phasors, THD and the deviation factor. */
+  harmonicCycles: z.number().int(),
   frequencyHz: finite,
   /** Zero-crossing estimate, kept as a cross-check of `frequencyHz`. */
   frequencyZeroCrossingHz: maybe,
