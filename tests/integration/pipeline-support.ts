@@ -6,7 +6,8 @@ import { getCaptureDetail } from "@/db/queries/captures";
 import { insertStationKey } from "@/db/queries/station-keys";
 import { listStations } from "@/db/queries/stations";
 import { getUnitBySerial } from "@/db/queries/units";
-import { users, type CaptureState } from "@/db/schema";
+import { organisations, stations, users, type CaptureState } from "@/db/schema";
+import type { SessionUser } from "@/lib/auth/options";
 import { generateStationKey } from "@/lib/server/hash";
 import { POST as registerRoute } from "@/app/api/v1/captures/route";
 import { POST as completeRoute } from "@/app/api/v1/captures/[id]/complete/route";
@@ -49,12 +50,22 @@ export async function uploadViaApi(token: string, csv: string, meta: Record<stri
   const reg = await registerViaApi(token, csv, meta);
   if (!reg.body.capture) throw new Error(`register failed: ${reg.status} ${reg.body.error}`);
   const upload = reg.body.upload;
+  let parts: { partNumber: number; etag: string }[] | undefined;
   if (upload?.kind === "single") {
     const put = await fetch(upload.url, { method: "PUT", headers: upload.headers, body: csv });
     if (!put.ok) throw new Error(`PUT failed: ${put.status}`);
+  } else if (upload?.kind === "multipart") {
+    const bytes = Buffer.from(csv);
+    parts = [];
+    for (const part of upload.parts) {
+      const body = bytes.subarray((part.partNumber - 1) * upload.partSize, part.partNumber * upload.partSize);
+      const put = await fetch(part.url, { method: "PUT", body });
+      if (!put.ok) throw new Error(`PUT part ${part.partNumber} failed: ${put.status}`);
+      parts.push({ partNumber: part.partNumber, etag: put.headers.get("etag") ?? "" });
+    }
   }
   const id = reg.body.capture.id;
-  const done = await completeRoute(jsonRequest(`http://test/api/v1/captures/${id}/complete`, token, {}), { params: Promise.resolve({ id }) });
+  const done = await completeRoute(jsonRequest(`http://test/api/v1/captures/${id}/complete`, token, { parts }), { params: Promise.resolve({ id }) });
   return { id, register: reg, completeStatus: done.status, complete: (await done.json()) as { state?: string; error?: string } };
 }
 
@@ -91,4 +102,20 @@ export async function startWorker(extraEnv: Record<string, string> = {}): Promis
     stop: async () => { if (proc.exitCode === null) proc.kill("SIGTERM"); await exited; },
     kill: async () => { if (proc.exitCode === null) proc.kill("SIGKILL"); await exited; },
   };
+}
+
+/** A second lab with one operator and one bench, so cross-organisation reads can be tried. */
+export async function createOtherLab(tag: string) {
+  const [org] = await getDb().insert(organisations).values({ name: `Other lab ${tag}`, slug: `other-lab-${tag}`, kind: "lab" }).returning();
+  if (!org) throw new Error("could not create the second lab");
+  const [user] = await getDb()
+    .insert(users)
+    .values({ email: `op-${tag}@other-lab.example`, name: "Other Operator", role: "operator", organisationId: org.id, passwordHash: "x" })
+    .returning();
+  await getDb().insert(stations).values({ labId: org.id, name: "Other bench" });
+  if (!user) throw new Error("could not create the second lab's operator");
+  const sessionUser: SessionUser = {
+    id: user.id, name: user.name, email: user.email, role: "operator", organisationId: org.id, organisationName: org.name, organisationKind: "lab",
+  };
+  return { org, sessionUser };
 }
