@@ -58,7 +58,7 @@ describe("registerCapture via the bench API: idempotency and bad input", () => {
   });
 
   it("binary content is refused at completion: 415, the object deleted, the capture marked rejected", async () => {
-    const bytes = "PK\u0003\u0004\u0000\u0000binary zip, not a capture".repeat(50);
+    const bytes = `PK\u0003\u0004\u0000\u0000binary zip ${run}, not a capture`.repeat(50);
     const { id, completeStatus, complete } = await uploadViaApi(token, bytes, { unitSerial: "KG45-260308", fileName: "renamed.csv" });
     expect(completeStatus).toBe(415);
     expect(complete.error).toMatch(/binary data/);
