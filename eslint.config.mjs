@@ -1,7 +1,7 @@
 import next from "eslint-config-next";
 
 const config = [
-  { ignores: [".next/**", "node_modules/**", ".data/**", "bench-out/**", "next-env.d.ts", "db/migrations/**"] },
+  { ignores: [".next/**", ".next-test/**", "test-results/**", "node_modules/**", ".data/**", "bench-out/**", "next-env.d.ts", "db/migrations/**"] },
   ...next,
 ];
 

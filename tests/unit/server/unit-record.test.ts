@@ -13,7 +13,7 @@ const verdict = (check: string, label: string, measured: number | string | null,
 
 function record(): UnitRecord {
   const report = {
-    analysisVersion: "t", sampleRateHz: 50_000, sampleCount: 10_000, durationS: 0.2, cyclesAnalysed: 10, frequencyHz: 50,
+    analysisVersion: "t", sampleRateHz: 50_000, sampleCount: 10_000, durationS: 0.2, cyclesAnalysed: 10, harmonicCycles: 10, frequencyHz: 50,
     frequencyZeroCrossingHz: 50, referenceChannel: "V_AB", channels: [], threePhase: null, backEmf: null, power: null,
     warnings: [{ code: "few-cycles", message: "Only ten cycles." }],
     verdicts: [verdict("thd", "THD, worst line", 2.5, "pass"), verdict("note", '=HYPERLINK("x"), "quoted"', "=1+1", "fail")],
