@@ -76,7 +76,7 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
       message: `At ${sampleRateHz.toPrecision(5)} S/s harmonics stop at order ${highest} (fs must exceed 2·H·f1 = ${(2 * opts.harmonics * frequencyHz).toPrecision(5)} S/s for H = ${opts.harmonics})`,
     });
   }
-  const harmonicCycles = Math.max(Math.min(window.cycles, 10), Math.floor(HARMONIC_WINDOW_SAMPLES / (sampleRateHz / frequencyHz)));
+  const harmonicCycles = Math.min(window.cycles, Math.max(10, Math.floor(HARMONIC_WINDOW_SAMPLES / (sampleRateHz / frequencyHz))));
   const harmonicWindow = wholeCycleWindow(capture.sampleCount, sampleRateHz, frequencyHz, 0, harmonicCycles) ?? window;
   const context = { sampleRateHz, frequencyHz, window, harmonicWindow, maxOrder: opts.harmonics, groupingIec: opts.groupingIec, deviationBasis: opts.deviationBasis };
   const analyses: ChannelAnalysis[] = capture.channels.map((channel, index) => analyseChannel(channel, roles[index] as ChannelRole, context));
