@@ -146,6 +146,7 @@ export function createFastBodyParser(
           let value: number;
           if (!exact || exponent > 22 || exponent < -22) {
             value = slowValue(buf, start, end);
+            if (!Number.isFinite(value)) reject(buf, start, to, column);
           } else {
             value = exponent >= 0 ? mantissa * (POW10[exponent] as number) : mantissa / (POW10[-exponent] as number);
             if (negative) value = -value;

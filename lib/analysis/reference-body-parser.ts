@@ -41,7 +41,7 @@ export function createReferenceBodyParser(
               column: `#${column + 1}`,
             });
           }
-          if (!isNumericCell(cell, decimal)) {
+          if (!isNumericCell(cell, decimal) || !Number.isFinite(readNumericCell(cell, decimal))) {
             throw new CaptureRejection("non-numeric", `Not a number: ${quoteCell(cell)}`, {
               line,
               column: headers[column] ?? `#${column + 1}`,
