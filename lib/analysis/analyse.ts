@@ -118,14 +118,21 @@ function computeBackEmfReport(
   const poleWarning = polePairWarning(polesFromFrequency);
   if (poleWarning) warnings.push(poleWarning);
   const lines = threePhase?.lineToLine.map((line) => line.fundamentalRms);
-  const single = analyses.find((analysis) => isVoltageRole(analysis.role));
-  const lineRms = lines && lines.length > 0 ? lines.reduce((sum, value) => sum + value, 0) / lines.length : single?.report.fundamental.rms;
+  let lineRms = lines && lines.length > 0 ? lines.reduce((sum, value) => sum + value, 0) / lines.length : undefined;
   if (lineRms === undefined) {
-    warnings.push({ code: "back-emf-no-voltage", message: "A speed was given but no voltage channel is present: back-EMF constant not computable" });
-    return null;
-  }
-  if (!threePhase) {
-    warnings.push({ code: "back-emf-single-channel", message: `Back-EMF constant taken from channel "${single?.channel.id}" as a line-line voltage` });
+    const single = analyses.find((analysis) => isVoltageRole(analysis.role));
+    if (!single) {
+      warnings.push({ code: "back-emf-no-voltage", message: "A speed was given but no voltage channel is present: back-EMF constant not computable" });
+      return null;
+    }
+    const phaseRole = ["van", "vbn", "vcn"].includes(single.role);
+    lineRms = single.report.fundamental.rms * (phaseRole ? Math.sqrt(3) : 1);
+    warnings.push({
+      code: "back-emf-single-channel",
+      message: phaseRole
+        ? `Back-EMF constant taken from line-neutral channel "${single.channel.id}" × √3 (a balanced set assumed)`
+        : `Back-EMF constant taken from channel "${single.channel.id}" as a line-line voltage`,
+    });
   }
   const poles = opts.poles ?? opts.rating?.poles ?? Math.max(2, 2 * Math.round(polesFromFrequency / 2));
   return { ...computeBackEmf(lineRms, opts.speedRpm, poles), polesFromFrequency, basis: "fundamental" };
