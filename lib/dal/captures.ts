@@ -4,8 +4,9 @@ import { getCaptureDetail, listCapturesForUnit, listRecentCaptures } from "@/db/
 import { getUnitBySerial } from "@/db/queries/units";
 import type { AnalysisReport } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
+import { requireUser } from "@/lib/auth/guards";
 import { presignDownload } from "@/lib/server/storage";
-import type { Actor } from "./actor";
+import { actorForUser, type Actor } from "./actor";
 
 // One read path for the capture page, the browser's polling handlers and the bench API.
 
@@ -84,4 +85,14 @@ export async function getUnitCapturesBySerial(actor: Actor, serial: string) {
     rating: { modelCode: found.rating.modelCode, title: found.rating.title },
     captures: rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() })),
   };
+}
+
+/** The capture page: the status view plus the run history; null for missing and for other organisations' captures. */
+export async function getCapturePageView(captureId: string) {
+  const user = await requireUser();
+  if (!/^[0-9a-f-]{36}$/i.test(captureId)) return null;
+  const actor = actorForUser(user);
+  const capture = await getCaptureStatusView(actor, captureId);
+  if (!capture) return null;
+  return { capture, history: await getCaptureHistory(actor, captureId), canUpload: actor.canUpload };
 }

@@ -1,0 +1,60 @@
+"use client";
+
+import { useQuery } from "@tanstack/react-query";
+import { Notice } from "@/components/ui/notice";
+import { StatusTag } from "@/components/ui/status-tag";
+import type { CaptureStatusView } from "@/lib/dal/captures";
+import { CaptureStateBadge, ProgressBar } from "./capture-state-badge";
+import { CapturePlots } from "./capture-plots";
+import { captureKeys, fetchCaptureStatus, isFinalState } from "./fetchers";
+import { MetricsTable } from "./metrics-table";
+import { CaptureQueryProvider } from "./query-provider";
+import { VerdictsTable, WarningsList } from "./verdicts-table";
+
+function CaptureLiveInner({ initial }: { initial: CaptureStatusView }) {
+  const { data } = useQuery({
+    queryKey: captureKeys.status(initial.id),
+    queryFn: () => fetchCaptureStatus(initial.id),
+    initialData: initial,
+    refetchInterval: (q) => (q.state.data && isFinalState(q.state.data.state) ? false : 1000),
+  });
+  const c = data ?? initial;
+  const analysis = c.analysis;
+  return (
+    <div className="space-y-6">
+      <div className="flex flex-wrap items-center gap-3 rounded-lg bg-white p-4 shadow-sm ring-1 ring-ink-200" aria-live="polite">
+        <span className="text-sm font-semibold">State</span>
+        <CaptureStateBadge state={c.state} progress={c.progress} />
+        {analysis ? <><span className="text-sm font-semibold">Overall</span><span data-testid="overall"><StatusTag status={analysis.report.overall} /></span></> : null}
+        {c.state === "analysing" ? <div className="w-full"><ProgressBar fraction={c.progress / 100} label="Analysis" /></div> : null}
+        {c.state === "queued" || c.state === "uploading" ? <p className="w-full text-xs text-ink-600">{c.stateMessage ?? "Waiting for a worker; this page updates by itself."}</p> : null}
+      </div>
+      {c.state === "rejected" ? <Notice kind="problem" title="The capture was rejected">{c.stateMessage}</Notice> : null}
+      {c.state === "failed" ? <Notice kind="problem" title="The analysis failed">{c.stateMessage}</Notice> : null}
+      {analysis ? (
+        <>
+          <section>
+            <h2 className="mb-2 text-lg font-semibold">Verdicts</h2>
+            <VerdictsTable report={analysis.report} />
+            <p className="mt-2 text-xs text-ink-600">Advisory measurements against the rating&apos;s tolerance profile; release of the unit is a qualified person&apos;s decision.</p>
+          </section>
+          <WarningsList report={analysis.report} />
+          <section>
+            <h2 className="mb-2 text-lg font-semibold">Metrics</h2>
+            <MetricsTable report={analysis.report} />
+          </section>
+          <CapturePlots captureId={c.id} analysedAt={c.analysedAt} />
+        </>
+      ) : null}
+    </div>
+  );
+}
+
+/** The live part of the capture page: state, then verdicts, metrics and plots once analysed. */
+export function CaptureLive({ initial }: { initial: CaptureStatusView }) {
+  return (
+    <CaptureQueryProvider>
+      <CaptureLiveInner initial={initial} />
+    </CaptureQueryProvider>
+  );
+}

@@ -1,0 +1,16 @@
+/** Numbers for tables: fixed significant digits, a dash for "not computable" (null). */
+export function fmt(value: number | null | undefined, digits = 4): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return "—";
+  if (value === 0) return "0";
+  const magnitude = Math.abs(value);
+  if (magnitude >= 1e6 || magnitude < 1e-3) return value.toExponential(digits - 1);
+  return value.toPrecision(digits).replace(/\.?0+$/, (m) => (m.includes(".") ? "" : m));
+}
+
+export function fmtWithUnit(value: number | string | null | undefined, unit: string, digits = 4): string {
+  if (typeof value === "string") return value;
+  const text = fmt(value, digits);
+  return text === "—" || !unit ? text : `${text} ${unit}`;
+}
+
+export const fmtDate = (iso: string | null) => (iso ? new Date(iso).toISOString().replace("T", " ").slice(0, 19) + " UTC" : "—");

@@ -1,0 +1,123 @@
+"use client";
+
+import { useState, type DragEvent, type FormEvent } from "react";
+import { Button } from "@/components/ui/button";
+import { Field, Select, TextArea, TextInput } from "@/components/ui/field";
+import { Notice } from "@/components/ui/notice";
+import { TEST_KIND_LABELS, TEST_KINDS } from "@/lib/captures/input-schemas";
+import { FileEntryCard } from "./file-entry-card";
+import { CaptureQueryProvider } from "./query-provider";
+import { useUploadQueue, type BatchMeta } from "./use-upload-queue";
+
+export type UploadFormOptions = {
+  units: { serial: string; modelCode: string }[];
+  ratings: { id: string; label: string }[];
+  stations: { id: string; name: string }[];
+  maxBytes: number;
+};
+
+function UploadFormInner({ options }: { options: UploadFormOptions }) {
+  const queue = useUploadQueue(options.maxBytes);
+  const [serial, setSerial] = useState("");
+  const [ratingId, setRatingId] = useState("");
+  const [testKind, setTestKind] = useState<BatchMeta["testKind"]>("no-load");
+  const [speed, setSpeed] = useState("");
+  const [stationId, setStationId] = useState(options.stations[0]?.id ?? "");
+  const [notes, setNotes] = useState("");
+  const [problem, setProblem] = useState<string | null>(null);
+  const [dragging, setDragging] = useState(false);
+  const [busy, setBusy] = useState(false);
+
+  const known = options.units.some((u) => u.serial === serial.trim());
+  const ready = queue.entries.filter((e) => e.phase === "ready").length;
+
+  const onDrop = (e: DragEvent) => {
+    e.preventDefault();
+    setDragging(false);
+    void queue.addFiles(Array.from(e.dataTransfer.files));
+  };
+
+  const onSubmit = async (e: FormEvent) => {
+    e.preventDefault();
+    const speedRpm = speed.trim() === "" ? null : Number(speed);
+    if (!serial.trim()) return setProblem("Give the unit's serial number.");
+    if (!known && !ratingId) return setProblem(`${serial.trim()} is a new unit: pick its rating to register it.`);
+    if (speedRpm !== null && !(speedRpm > 0)) return setProblem("Shaft speed must be a positive number of rpm.");
+    if (ready === 0) return setProblem("Add at least one CSV file.");
+    setProblem(null);
+    setBusy(true);
+    await queue.uploadAll({
+      unitSerial: serial.trim(), newUnitRatingId: known ? undefined : ratingId, testKind, speedRpm,
+      stationId: stationId || undefined, notes,
+    });
+    setBusy(false);
+  };
+
+  return (
+    <form onSubmit={onSubmit} className="space-y-6">
+      <fieldset className="grid gap-4 rounded-lg bg-white p-5 shadow-sm ring-1 ring-ink-200 md:grid-cols-2">
+        <legend className="px-1 text-sm font-semibold">Capture details</legend>
+        <Field label="Unit serial" hint={serial && !known ? "Not on file yet: it will be registered with the rating below." : "Pick a unit or type a new serial."}>
+          <TextInput list="unit-serials" value={serial} onChange={(e) => setSerial(e.target.value)} autoComplete="off" required />
+        </Field>
+        <datalist id="unit-serials">{options.units.map((u) => <option key={u.serial} value={u.serial}>{u.modelCode}</option>)}</datalist>
+        {serial.trim() && !known ? (
+          <Field label="Rating of the new unit">
+            <Select value={ratingId} onChange={(e) => setRatingId(e.target.value)}>
+              <option value="">Choose a rating…</option>
+              {options.ratings.map((r) => <option key={r.id} value={r.id}>{r.label}</option>)}
+            </Select>
+          </Field>
+        ) : null}
+        <Field label="Test">
+          <Select value={testKind} onChange={(e) => setTestKind(e.target.value as BatchMeta["testKind"])}>
+            {TEST_KINDS.map((k) => <option key={k} value={k}>{TEST_KIND_LABELS[k]}</option>)}
+          </Select>
+        </Field>
+        <Field label="Shaft speed (rpm)" hint="Needed for back-EMF constants and the pole-count check.">
+          <TextInput inputMode="decimal" value={speed} onChange={(e) => setSpeed(e.target.value)} />
+        </Field>
+        <Field label="Bench">
+          <Select value={stationId} onChange={(e) => setStationId(e.target.value)}>
+            <option value="">Not recorded</option>
+            {options.stations.map((s) => <option key={s.id} value={s.id}>{s.name}</option>)}
+          </Select>
+        </Field>
+        <Field label="Notes">
+          <TextArea value={notes} onChange={(e) => setNotes(e.target.value)} maxLength={2000} />
+        </Field>
+      </fieldset>
+
+      <div onDragOver={(e) => { e.preventDefault(); setDragging(true); }} onDragLeave={() => setDragging(false)} onDrop={onDrop}
+        className={`rounded-lg border-2 border-dashed px-6 py-8 text-center text-sm ${dragging ? "border-copper-600 bg-copper-50" : "border-ink-200 bg-white"}`}>
+        <p className="font-semibold">Drop CSV exports here</p>
+        <p className="mt-1 text-ink-600">One or many files, up to {(options.maxBytes / 1024 ** 3).toFixed(1)} GiB each. The header row is read here so you can confirm each channel&apos;s role.</p>
+        <label className="mt-3 inline-block cursor-pointer rounded-md bg-white px-4 py-2 font-semibold ring-1 ring-ink-200 hover:bg-ink-100">
+          Choose files
+          <input type="file" multiple accept=".csv,.txt,.tsv,text/csv" className="sr-only" aria-label="Capture files"
+            onChange={(e) => { void queue.addFiles(Array.from(e.target.files ?? [])); e.target.value = ""; }} />
+        </label>
+      </div>
+
+      {queue.entries.length > 0 ? (
+        <ul className="space-y-3" aria-label="Files">
+          {queue.entries.map((entry) => (
+            <FileEntryCard key={entry.key} entry={entry} onChange={(c) => queue.patch(entry.key, c)} onRemove={() => queue.remove(entry.key)} />
+          ))}
+        </ul>
+      ) : null}
+
+      {problem ? <Notice kind="problem">{problem}</Notice> : null}
+      <Button type="submit" disabled={busy || ready === 0}>{busy ? "Uploading…" : `Upload ${ready || ""} ${ready === 1 ? "file" : "files"}`.replace("  ", " ")}</Button>
+    </form>
+  );
+}
+
+/** The operator's upload form, with its own query client for live states. */
+export function UploadForm({ options }: { options: UploadFormOptions }) {
+  return (
+    <CaptureQueryProvider>
+      <UploadFormInner options={options} />
+    </CaptureQueryProvider>
+  );
+}

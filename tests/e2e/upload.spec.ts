@@ -1,0 +1,40 @@
+import { expect, test } from "@playwright/test";
+import { makeThreePhaseCsv } from "../fixtures/pipeline/make-capture";
+import { signIn } from "./support";
+
+// Needs the test server and the worker that scripts/test.sh starts beside it.
+
+test("an operator uploads two CSV files, watches both go queued → analysed, then opens a capture with its plot and verdicts", async ({ page }) => {
+  test.setTimeout(120_000);
+  const run = Date.now() % 1_000_000;
+  await signIn(page, "operator");
+  await page.goto("/upload");
+  await expect(page.getByRole("complementary", { name: "Safety caution" })).toBeVisible();
+  await page.getByLabel("Unit serial").fill("KG45-260310");
+  await page.getByLabel("Shaft speed (rpm)").fill("1500");
+  await page.getByLabel("Capture files").setInputFiles([
+    { name: `no-load-a-${run}.csv`, mimeType: "text/csv", buffer: Buffer.from(makeThreePhaseCsv({ variant: run })) },
+    { name: `no-load-b-${run}.csv`, mimeType: "text/csv", buffer: Buffer.from(makeThreePhaseCsv({ variant: run + 1, fifth: 0.03 })) },
+  ]);
+  const files = page.getByTestId("upload-file");
+  await expect(files).toHaveCount(2);
+  // The header row was read in the browser: roles are offered for the operator to confirm.
+  await expect(files.first().getByLabel("Role of V_AN (V)")).toHaveValue("van");
+  await page.getByRole("button", { name: "Upload 2 files" }).click();
+
+  for (const file of await files.all()) {
+    await expect(file.getByRole("progressbar", { name: "Upload" })).toHaveAttribute("aria-valuenow", "100", { timeout: 30_000 });
+    await expect(file.getByTestId("state-trail")).toHaveText(/Queued.*Analysed/, { timeout: 60_000 });
+    await expect(file.getByTestId("capture-state")).toHaveAttribute("data-state", "analysed");
+  }
+  await expect(page).toHaveURL(/\/upload$/);
+
+  await files.first().getByRole("link", { name: "Open capture" }).click();
+  await expect(page).toHaveURL(/\/captures\/[0-9a-f-]{36}$/);
+  await expect(page.getByRole("table", { name: "Verdicts" })).toBeVisible();
+  await expect(page.getByRole("table", { name: "Verdicts" }).getByRole("row")).not.toHaveCount(1);
+  await expect(page.getByTestId("overall")).toBeVisible();
+  await expect(page.getByTestId("waveform-plot").locator("canvas")).toBeVisible();
+  await expect(page.getByTestId("spectrum-plot").locator("canvas")).toBeVisible();
+  await expect(page.getByRole("table", { name: "Channel metrics" })).toContainText("V_BN (V)");
+});
