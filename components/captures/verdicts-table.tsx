@@ -5,7 +5,12 @@ import { fmtWithUnit } from "./format";
 /** Every check with its measured value, limits, status and the basis of its limits. */
 export function VerdictsTable({ report }: { report: AnalysisReport }) {
   if (report.verdicts.length === 0) return <p className="text-sm text-ink-600">No checks apply: the unit&apos;s rating gives no limits for this capture.</p>;
+  // Most checks share the tolerance profile's source: say it once, and only the exceptions per row.
+  const counts = new Map<string, number>();
+  for (const v of report.verdicts) if (v.source) counts.set(v.source, (counts.get(v.source) ?? 0) + 1);
+  const common = [...counts.entries()].sort((a, b) => b[1] - a[1])[0]?.[0] ?? "";
   return (
+    <>
     <div className="overflow-x-auto rounded-lg bg-white shadow-sm ring-1 ring-ink-200">
       <table className="min-w-full text-sm" aria-label="Verdicts">
         <thead className="bg-ink-100 text-left text-xs uppercase tracking-wide text-ink-600">
@@ -20,12 +25,14 @@ export function VerdictsTable({ report }: { report: AnalysisReport }) {
                 {v.lower === null && v.upper === null ? "—" : `${v.lower === null ? "" : fmtWithUnit(v.lower, v.unit)} … ${v.upper === null ? "" : fmtWithUnit(v.upper, v.unit)}`}
               </td>
               <td className="px-3 py-2"><StatusTag status={v.status} /></td>
-              <td className="px-3 py-2 text-xs text-ink-600">{v.basis}{v.source ? <span className="block">{v.source}</span> : null}</td>
+              <td className="px-3 py-2 text-xs text-ink-600">{v.basis}{v.source && v.source !== common ? <span className="block">{v.source}</span> : null}</td>
             </tr>
           ))}
         </tbody>
       </table>
     </div>
+    {common ? <p className="mt-2 text-xs text-ink-600">Limits: {common}</p> : null}
+    </>
   );
 }
 

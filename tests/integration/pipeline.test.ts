@@ -51,7 +51,7 @@ describe("bench API upload → queue → worker → PostgreSQL", () => {
     expect(completeStatus).toBe(202);
     const capture = await waitForState(labId, id, ["analysed", "rejected", "failed"]);
     expect(capture.state).toBe("rejected");
-    // Line 501 of the file: two preamble lines, the header, then data (index 500 of the lines).
+    // Line 501 of the file: three preamble lines, the header, then data (index 500 of the lines).
     expect(capture.stateMessage).toMatch(/Not a number: "oops" \(line 501, column "V_BN \(V\)"\)/);
     expect(capture.attempts).toBe(1);
   });
