@@ -29,11 +29,10 @@ export function createFastBodyParser(
   decimal: "." | ",",
   firstLine: number,
 ): BodyParser {
-  const delimiter = delimiterText.charCodeAt(0);
-  const decimalByte = decimal.charCodeAt(0);
-  const skipsTab = delimiter !== TAB;
-  const width = headers.length;
-  const row = new Float64Array(width);
+  const delimiterByte = delimiterText.charCodeAt(0);
+  const decimalCode = decimal.charCodeAt(0);
+  const columnCount = headers.length;
+  const rowValues = new Float64Array(columnCount);
   const decoder = new TextDecoder();
   let line = firstLine - 1;
   let carry: Uint8Array | null = null;
@@ -42,9 +41,9 @@ export function createFastBodyParser(
 
   function reject(buf: Uint8Array, from: number, to: number, column: number): never {
     let end = from;
-    while (end < to && buf[end] !== delimiter && buf[end] !== NL && buf[end] !== CR) end++;
+    while (end < to && buf[end] !== delimiterByte && buf[end] !== NL && buf[end] !== CR) end++;
     const cell = decoder.decode(buf.subarray(from, end)).trim();
-    if (column >= width) {
+    if (column >= columnCount) {
       throw new CaptureRejection("unexpected-field", `Value ${quoteCell(cell)} beyond the last column of the header`, {
         line,
         column: `#${column + 1}`,
@@ -58,90 +57,109 @@ export function createFastBodyParser(
     return Number(decimal === "," ? text.replace(",", ".") : text);
   }
 
-  /** Parses whole lines in buf[from, to); the last one may lack its newline. */
+  /**
+   * Parses whole lines in buf[from, to). Invariant: buf[to − 1] is a newline, so every scan stops
+   * at it without a bounds check and every read stays inside the buffer.
+   */
   function parseRange(buf: Uint8Array, from: number, to: number): void {
+    // Locals, not closure variables: the loop below is the hottest code of an ingestion.
+    const delimiter = delimiterByte;
+    const decimalByte = decimalCode;
+    const skipsTab = delimiter !== TAB;
+    const width = columnCount;
+    const row = rowValues;
     let i = from;
     while (i < to) {
       line++;
       let column = 0;
       let filled = 0;
       for (;;) {
-        let c = buf[i];
-        while ((c === SPACE || (c === TAB && skipsTab)) && i < to) c = buf[++i];
+        let c = buf[i] as number;
+        while (c === SPACE || (c === TAB && skipsTab)) c = buf[++i] as number;
         const quoted = c === QUOTE;
-        if (quoted) c = buf[++i];
+        if (quoted) c = buf[++i] as number;
         const start = i;
-        if (i >= to || c === delimiter || c === NL || c === CR || (quoted && c === QUOTE)) {
+        if (c === delimiter || c === NL || c === CR || (quoted && c === QUOTE)) {
           if (column < width) row[column] = Number.NaN;
-          if (quoted) c = buf[++i];
+          if (quoted) c = buf[++i] as number;
         } else {
           let negative = false;
           if (c === 45) {
             negative = true;
-            c = buf[++i];
+            c = buf[++i] as number;
           } else if (c === 43) {
-            c = buf[++i];
+            c = buf[++i] as number;
           }
           let mantissa = 0;
           let digits = 0;
           let exponent = 0;
-          let seen = false;
           let exact = true;
-          while (c !== undefined && c >= 48 && c <= 57) {
-            seen = true;
-            if (mantissa !== 0 || c !== 48) {
-              if (digits < MAX_EXACT_DIGITS) {
-                mantissa = mantissa * 10 + (c - 48);
-                digits++;
-              } else {
-                exact = false;
-              }
+          const digitsStart = i;
+          // Integer part; leading zeros are not significant.
+          while (c === 48) c = buf[++i] as number;
+          let d = c - 48;
+          while (d >= 0 && d <= 9) {
+            if (digits < MAX_EXACT_DIGITS) {
+              mantissa = mantissa * 10 + d;
+              digits++;
+            } else {
+              exact = false;
             }
-            c = buf[++i];
+            c = buf[++i] as number;
+            d = c - 48;
           }
+          let seen = i > digitsStart;
           if (c === decimalByte) {
-            c = buf[++i];
-            while (c !== undefined && c >= 48 && c <= 57) {
-              seen = true;
-              if (mantissa === 0 && c === 48) {
+            c = buf[++i] as number;
+            const fractionStart = i;
+            if (mantissa === 0) {
+              while (c === 48) {
                 exponent--;
-              } else if (digits < MAX_EXACT_DIGITS) {
-                mantissa = mantissa * 10 + (c - 48);
+                c = buf[++i] as number;
+              }
+            }
+            d = c - 48;
+            while (d >= 0 && d <= 9) {
+              if (digits < MAX_EXACT_DIGITS) {
+                mantissa = mantissa * 10 + d;
                 digits++;
                 exponent--;
               } else {
                 exact = false;
               }
-              c = buf[++i];
+              c = buf[++i] as number;
+              d = c - 48;
             }
+            seen = seen || i > fractionStart;
           }
-          if (!seen || i > to) reject(buf, start, to, column);
+          if (!seen) reject(buf, start, to, column);
           if (c === 101 || c === 69) {
-            c = buf[++i];
+            c = buf[++i] as number;
             let expNegative = false;
             if (c === 45) {
               expNegative = true;
-              c = buf[++i];
+              c = buf[++i] as number;
             } else if (c === 43) {
-              c = buf[++i];
+              c = buf[++i] as number;
             }
+            const expStart = i;
             let expValue = 0;
-            let expDigits = 0;
-            while (c !== undefined && c >= 48 && c <= 57 && i < to) {
-              if (expValue < 100000) expValue = expValue * 10 + (c - 48);
-              expDigits++;
-              c = buf[++i];
+            d = c - 48;
+            while (d >= 0 && d <= 9) {
+              if (expValue < 100000) expValue = expValue * 10 + d;
+              c = buf[++i] as number;
+              d = c - 48;
             }
-            if (expDigits === 0) reject(buf, start, to, column);
+            if (i === expStart) reject(buf, start, to, column);
             exponent += expNegative ? -expValue : expValue;
           }
           const end = i;
           if (quoted) {
             if (c !== QUOTE) reject(buf, start, to, column);
-            c = buf[++i];
+            c = buf[++i] as number;
           }
-          while ((c === SPACE || (c === TAB && skipsTab)) && i < to) c = buf[++i];
-          if (i < to && c !== delimiter && c !== NL && c !== CR) reject(buf, start, to, column);
+          while (c === SPACE || (c === TAB && skipsTab)) c = buf[++i] as number;
+          if (c !== delimiter && c !== NL && c !== CR) reject(buf, start, to, column);
           if (column >= width) reject(buf, start, to, column);
           let value: number;
           if (!exact || exponent > 22 || exponent < -22) {
@@ -154,7 +172,7 @@ export function createFastBodyParser(
           row[column] = value;
           filled++;
         }
-        if (i < to && c === delimiter) {
+        if (c === delimiter) {
           i++;
           column++;
           continue;
@@ -162,7 +180,7 @@ export function createFastBodyParser(
         break;
       }
       // End of line: step over CR/LF; any other byte here was rejected above.
-      while (i < to && buf[i] !== NL) i++;
+      while (buf[i] !== NL) i++;
       i++;
       if (filled === 0) continue;
       for (let rest = column + 1; rest < width; rest++) row[rest] = Number.NaN;
@@ -202,7 +220,10 @@ export function createFastBodyParser(
     },
     finish(): void {
       if (carry) {
-        const rest = carry;
+        // The last line has no newline: give it one so the scan invariant holds.
+        const rest = new Uint8Array(carry.length + 1);
+        rest.set(carry);
+        rest[carry.length] = NL;
         carry = null;
         parseRange(rest, 0, rest.length);
       }
