@@ -2,7 +2,6 @@ import { computeBackEmf, polesFromSpeed } from "./back-emf";
 import { analyseChannel, finiteOrNull, isVoltageRole, type ChannelAnalysis } from "./channel-metrics";
 import { wholeCycleWindow } from "./cycles";
 import { estimateBySpectrum, estimateByZeroCrossings, refineFrequency } from "./frequency";
-import { spanMoments } from "./goertzel";
 import { highestOrderBelowNyquist } from "./harmonics";
 import { analysisOptionsSchema, type AnalysisOptions } from "./options";
 import { computePowerReport } from "./power-report";
@@ -26,9 +25,17 @@ const REFERENCE_ORDER: ChannelRole[] = ["van", "vab", "v", "vbn", "vbc", "vcn", 
 
 /** Frequency of the reference channel: coarse FFT (or zero crossings), then phase-drift refinement. */
 function measureFrequency(samples: Float64Array, sampleRateHz: number, id: string, warnings: QualityWarning[]): { frequencyHz: number; zeroCrossingHz: number | null } {
-  const { mean } = spanMoments(samples, 0, samples.length);
-  let amplitude = 0;
-  for (let n = 0; n < samples.length; n++) amplitude = Math.max(amplitude, Math.abs((samples[n] as number) - mean));
+  let sum = 0;
+  let max = Number.NEGATIVE_INFINITY;
+  let min = Number.POSITIVE_INFINITY;
+  for (let n = 0; n < samples.length; n++) {
+    const v = samples[n] as number;
+    sum += v;
+    if (v > max) max = v;
+    if (v < min) min = v;
+  }
+  const mean = sum / samples.length;
+  const amplitude = Math.max(max - mean, mean - min);
   const crossings = estimateByZeroCrossings(samples, sampleRateHz, mean, amplitude);
   const spectral = estimateBySpectrum(samples, sampleRateHz, mean);
   const spectralAgrees = spectral !== null && (crossings === null || Math.abs(spectral - crossings.frequencyHz) <= 0.05 * crossings.frequencyHz);

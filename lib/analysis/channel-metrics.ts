@@ -1,9 +1,9 @@
 import { computeDeviationFactor, type DeviationBasis } from "./deviation";
-import { spanMoments } from "./goertzel";
+import { scanChannel } from "./channel-scan";
 import { computeHarmonics } from "./harmonics";
 import { computeHarmonicGroups } from "./iec-grouping";
 import { magnitude, type Complex } from "./phasors";
-import { clippingWarning, dcOffsetWarning } from "./quality";
+import { clippingWarning, dcOffsetWarning, flatTopRunSamples } from "./quality";
 import { computeThf, computeTif } from "./telephone";
 import { computeThd } from "./thd";
 import type { CycleWindow } from "./cycles";
@@ -43,15 +43,11 @@ export function analyseChannel(channel: CaptureChannel, role: ChannelRole, conte
   const { sampleRateHz, frequencyHz, window, harmonicWindow } = context;
   const x = channel.samples;
   const warnings: QualityWarning[] = [];
-  const { mean: dc, meanSquare } = spanMoments(x, window.start, window.spanSamples);
+  const samplesPerCycle = sampleRateHz / frequencyHz;
+  const scan = scanChannel(x, window, flatTopRunSamples(samplesPerCycle));
+  const { mean: dc, meanSquare, peak } = scan;
   const rms = Math.sqrt(Math.max(0, meanSquare));
   const acRms = Math.sqrt(Math.max(0, meanSquare - dc * dc));
-  let peak = 0;
-  const last = Math.min(x.length - 1, window.start + Math.floor(window.spanSamples));
-  for (let n = window.start; n <= last; n++) {
-    const magnitudeNow = Math.abs(x[n] as number);
-    if (magnitudeNow > peak) peak = magnitudeNow;
-  }
   const components = computeHarmonics(x, sampleRateHz, frequencyHz, harmonicWindow, context.maxOrder);
   const first = components[0];
   const fundamental = first?.phasor ?? { re: 0, im: 0 };
@@ -73,7 +69,7 @@ export function analyseChannel(channel: CaptureChannel, role: ChannelRole, conte
   const deviation = voltage
     ? computeDeviationFactor(x, sampleRateHz, frequencyHz, harmonicWindow, dc, acRms, Math.atan2(fundamental.im, fundamental.re), context.deviationBasis)
     : null;
-  const clipping = clippingWarning(channel.id, x, sampleRateHz / frequencyHz);
+  const clipping = clippingWarning(channel.id, scan.flatTopRuns, scan.longestFlatTop);
   if (clipping) warnings.push(clipping);
   const offset = dcOffsetWarning(channel.id, dc, magnitude(fundamental));
   if (offset) warnings.push(offset);

@@ -1,39 +1,15 @@
 import type { QualityWarning } from "./types";
 
 /**
- * Flat tops at the record's extreme values: runs of identical samples at the maximum or
- * minimum at least 2 % of a cycle long (7.2°), seen at least twice. Quantised sines do not
- * reach that; a clipped probe or a saturated input does.
+ * Flat tops at the record's extreme values: runs of identical samples at the maximum or minimum at
+ * least 2 % of a cycle long (7.2°), seen at least twice. Quantised sines do not reach that; a clipped
+ * probe or a saturated input does.
  */
-export function detectClipping(samples: Float64Array, samplesPerCycle: number): { runs: number; longestRun: number } {
-  let max = Number.NEGATIVE_INFINITY;
-  let min = Number.POSITIVE_INFINITY;
-  for (let n = 0; n < samples.length; n++) {
-    const v = samples[n] as number;
-    if (v > max) max = v;
-    if (v < min) min = v;
-  }
-  const threshold = Math.max(4, Math.ceil(0.02 * samplesPerCycle));
-  let runs = 0;
-  let longestRun = 0;
-  let run = 0;
-  let previous = Number.NaN;
-  for (let n = 0; n < samples.length; n++) {
-    const v = samples[n] as number;
-    if (v === max || v === min) {
-      run = v === previous ? run + 1 : 1;
-      if (run === threshold) runs++;
-      if (run > longestRun) longestRun = run;
-    } else {
-      run = 0;
-    }
-    previous = v;
-  }
-  return { runs, longestRun: runs > 0 ? longestRun : 0 };
+export function flatTopRunSamples(samplesPerCycle: number): number {
+  return Math.max(4, Math.ceil(0.02 * samplesPerCycle));
 }
 
-export function clippingWarning(channelId: string, samples: Float64Array, samplesPerCycle: number): QualityWarning | null {
-  const { runs, longestRun } = detectClipping(samples, samplesPerCycle);
+export function clippingWarning(channelId: string, runs: number, longestRun: number): QualityWarning | null {
   if (runs < 2) return null;
   return {
     code: "clipping",
