@@ -96,3 +96,10 @@ export async function getCapturePageView(captureId: string) {
   if (!capture) return null;
   return { capture, history: await getCaptureHistory(actor, captureId), canUpload: actor.canUpload };
 }
+
+/** The unit page's captures list; the unit itself was already checked by the caller's scope. */
+export async function getUnitCaptureRows(unitId: string) {
+  const actor = actorForUser(await requireUser());
+  const rows = await listCapturesForUnit(actor.scope, unitId);
+  return rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() }));
+}

@@ -1,6 +1,8 @@
 import { notFound } from "next/navigation";
+import { UnitCapturesTable } from "@/components/captures/unit-captures-table";
 import { PageHeader } from "@/components/shell/page-header";
 import { StatusTag } from "@/components/ui/status-tag";
+import { getUnitCaptureRows } from "@/lib/dal/captures";
 import { getUnitHistoryView } from "@/lib/dal/review";
 import { getUnitView } from "@/lib/dal/units";
 import { DispositionPanel } from "./_components/disposition-panel";
@@ -12,7 +14,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
   // Another organisation's unit is indistinguishable from a missing one.
   if (!view) notFound();
   const { unit, rating, owner } = view;
-  const history = await getUnitHistoryView(unit.id);
+  const [history, captureRows] = await Promise.all([getUnitHistoryView(unit.id), getUnitCaptureRows(unit.id)]);
   return (
     <>
       <PageHeader
@@ -31,6 +33,10 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
         <div><dt className="text-ink-600">Registered</dt><dd className="mt-1">{unit.createdAt.toISOString().slice(0, 10)}</dd></div>
         <div><dt className="text-ink-600">Model</dt><dd className="mt-1 font-mono">{rating.modelCode}</dd></div>
       </dl>
+      <section aria-labelledby="captures" className="mt-6 rounded-lg bg-white p-5 shadow-sm ring-1 ring-ink-200">
+        <h2 id="captures" className="mb-3 font-semibold">Captures</h2>
+        <UnitCapturesTable rows={captureRows} />
+      </section>
       <section aria-labelledby="decisions" className="mt-6 grid gap-6 rounded-lg bg-white p-5 shadow-sm ring-1 ring-ink-200 md:grid-cols-2">
         <div>
           <h2 id="decisions" className="mb-3 font-semibold">Decisions</h2>
