@@ -29,6 +29,12 @@ export class ColumnSink {
   private count = 0;
   private capacity: number;
   private readonly firstMissingLine: number[];
+  private readonly width: number;
+  private readonly factors: Float64Array;
+  private readonly offsets: Float64Array;
+  /** Column index of time, −1 without one. */
+  private readonly timeIndex: number;
+  private gapSeen = false;
   private lastLine = 0;
   private timeStart = Number.NaN;
   private timePrevious = Number.NaN;
@@ -48,13 +54,39 @@ export class ColumnSink {
     this.capacity = capacity;
     this.stores = columns.map((_, index) => (index === timeColumn ? new Float64Array(0) : new Float64Array(capacity)));
     this.firstMissingLine = columns.map(() => -1);
+    this.width = columns.length;
+    this.factors = Float64Array.from(columns, (column) => column.factor);
+    this.offsets = Float64Array.from(columns, (column) => column.offset);
+    this.timeIndex = timeColumn ?? -1;
   }
 
   /** `row[c]` is NaN for an empty cell. */
   accept(row: Float64Array, line: number): void {
     const n = this.count;
     if (n >= this.capacity) this.grow();
-    for (let c = 0; c < this.columns.length; c++) {
+    const width = this.width;
+    let complete = !this.gapSeen;
+    for (let c = 0; c < width && complete; c++) complete = (row[c] as number) === (row[c] as number);
+    if (!complete) {
+      this.acceptWithGaps(row, line, n);
+    } else {
+      const stores = this.stores;
+      const factors = this.factors;
+      const offsets = this.offsets;
+      const timeColumn = this.timeIndex;
+      for (let c = 0; c < width; c++) {
+        if (c !== timeColumn) (stores[c] as Float64Array)[n] = (row[c] as number) * (factors[c] as number) + (offsets[c] as number);
+      }
+      if (timeColumn >= 0) this.acceptTime((row[timeColumn] as number) * this.timeFactor, line);
+    }
+    this.count = n + 1;
+    this.lastLine = line;
+  }
+
+  /** Rows with empty cells: allowed only as a run of empties at the end of a column. */
+  private acceptWithGaps(row: Float64Array, line: number, n: number): void {
+    this.gapSeen = true;
+    for (let c = 0; c < this.width; c++) {
       const value = row[c] as number;
       if (value !== value) {
         if (this.firstMissingLine[c] === -1) this.firstMissingLine[c] = line;
@@ -64,15 +96,12 @@ export class ColumnSink {
           column: this.columns[c]?.header ?? `#${c + 1}`,
         });
       }
-      if (c === this.timeColumn) {
+      if (c === this.timeIndex) {
         if (value === value) this.acceptTime(value * this.timeFactor, line);
       } else {
-        const column = this.columns[c] as SinkColumn;
-        (this.stores[c] as Float64Array)[n] = value * column.factor + column.offset;
+        (this.stores[c] as Float64Array)[n] = value * (this.factors[c] as number) + (this.offsets[c] as number);
       }
     }
-    this.count = n + 1;
-    this.lastLine = line;
   }
 
   private acceptTime(timeS: number, line: number): void {

@@ -75,6 +75,48 @@ export function createFastBodyParser(
       let filled = 0;
       for (;;) {
         let c = buf[i] as number;
+        if ((c >= 48 && c <= 57) || c === 45) {
+          // Fast path for the common cell, "-123.4567" right up to its delimiter: at most 15
+          // digits, so mantissa and 10^k are exact and one division rounds correctly. Anything
+          // else (spaces, quotes, exponents, long digits) rewinds to the general path below.
+          const cellStart = i;
+          const negative = c === 45;
+          if (negative) c = buf[++i] as number;
+          let mantissa = 0;
+          let whole = 0;
+          let d = c - 48;
+          while (d >= 0 && d <= 9) {
+            mantissa = mantissa * 10 + d;
+            whole++;
+            c = buf[++i] as number;
+            d = c - 48;
+          }
+          let fraction = 0;
+          if (c === decimalByte) {
+            c = buf[++i] as number;
+            d = c - 48;
+            while (d >= 0 && d <= 9) {
+              mantissa = mantissa * 10 + d;
+              fraction++;
+              c = buf[++i] as number;
+              d = c - 48;
+            }
+          }
+          const digits = whole + fraction;
+          if ((c === delimiter || c === NL || c === CR) && digits > 0 && digits <= MAX_EXACT_DIGITS && column < width) {
+            const value = fraction === 0 ? mantissa : mantissa / (POW10[fraction] as number);
+            row[column] = negative ? -value : value;
+            filled++;
+            if (c === delimiter) {
+              i++;
+              column++;
+              continue;
+            }
+            break;
+          }
+          i = cellStart;
+          c = buf[i] as number;
+        }
         while (c === SPACE || (c === TAB && skipsTab)) c = buf[++i] as number;
         const quoted = c === QUOTE;
         if (quoted) c = buf[++i] as number;

@@ -4,7 +4,6 @@ export interface Complex {
   im: number;
 }
 
-export const complex = (re: number, im: number): Complex => ({ re, im });
 export const fromPolar = (magnitude: number, angleRad: number): Complex => ({ re: magnitude * Math.cos(angleRad), im: magnitude * Math.sin(angleRad) });
 export const add = (a: Complex, b: Complex): Complex => ({ re: a.re + b.re, im: a.im + b.im });
 export const subtract = (a: Complex, b: Complex): Complex => ({ re: a.re - b.re, im: a.im - b.im });

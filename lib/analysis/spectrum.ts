@@ -43,11 +43,3 @@ export function realSpectrum(samples: Float64Array, out?: Float64Array): Float64
   fft.realTransform(buffer, samples);
   return buffer.subarray(0, size + 2);
 }
-
-/** Magnitudes |X_k| for k = 0..N/2 of a spectrum from `realSpectrum`. */
-export function spectrumMagnitudes(spectrum: Float64Array): Float64Array {
-  const bins = spectrum.length / 2;
-  const out = new Float64Array(bins);
-  for (let k = 0; k < bins; k++) out[k] = Math.hypot(spectrum[2 * k] as number, spectrum[2 * k + 1] as number);
-  return out;
-}

@@ -1,3 +1,4 @@
+import { largestHarmonic } from "./thd";
 import type { Rating } from "./rating";
 import type { AnalysisReport, Verdict, VerdictStatus } from "./report-schema";
 import type { ToleranceProfile } from "./tolerance";
@@ -70,9 +71,7 @@ export function computeVerdicts(measured: Measured, rating: Rating, profile: Tol
 
   add("thd", "Total harmonic distortion", maxOf(waveformChannels.map((c) => c.thdFPercent)), "%", null, profile?.thdMaxPercent ?? null, 0, "THD-F, worst voltage channel");
 
-  const individual = maxOf(
-    waveformChannels.map((c) => (c.fundamental.rms > 0 && c.harmonics.length > 0 ? (100 * Math.max(...c.harmonics.map((h) => h.rms))) / c.fundamental.rms : null)),
-  );
+  const individual = maxOf(waveformChannels.map((c) => largestHarmonic(c.fundamental.rms, c.harmonics)?.percent ?? null));
   add("individual-harmonic", "Largest single harmonic", individual, "%", null, profile?.individualHarmonicMaxPercent ?? null, 0, "percent of the fundamental, worst voltage channel");
 
   const definition = profile?.unbalanceDefinition ?? "vuf";

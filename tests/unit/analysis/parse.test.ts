@@ -67,6 +67,16 @@ describe("parseCaptureText on the layout samples", () => {
     }
   });
 
+  it("parseCaptureText reads awkward numeric cells exactly as Number() does, on both paths (reference: Number)", () => {
+    const cells = ["-0", "0.000000000000001", "123456789012345", "1234567890123456", "1.", "-.5", ".5", "007", "1e5", "-2.5E-3", "+4.25", " 3.5 ", "9007199254740993", "0.1", "1.7976931348623157e308", "-1234.5678", "42"];
+    const rows = cells.map((cell, i) => `${i * 1e-3},${cell}`);
+    for (const engine of ["fast", "reference"] as const) {
+      const samples = parseCaptureText(["t (s),v (V)", ...rows].join("\n"), { engine }).channels[0]!.samples;
+      // Calibration is always applied (× 1 + 0), which turns −0 into +0 and changes nothing else.
+      cells.forEach((cell, i) => expect(Object.is(samples[i], Number(cell.trim()) * 1 + 0)).toBe(true));
+    }
+  });
+
   it("parseCaptureText applies a per-channel probe ratio and offset (options)", () => {
     const text = readText("layouts", "comma-point.csv");
     const plain = parseCaptureText(text);
