@@ -69,7 +69,7 @@ pids+=($!)
 node_modules/.bin/tsx worker/index.ts >.data/log/test-worker.log 2>&1 &
 pids+=($!)
 for _ in $(seq 1 60); do
-  curl -fsS -o /dev/null "$E2E_BASE_URL/sign-in" && break
+  curl -fsS -o /dev/null "$E2E_BASE_URL/sign-in" 2>/dev/null && break
   sleep 1
 done
 PLAYWRIGHT_JSON_OUTPUT_NAME="$RESULTS/e2e.json" node_modules/.bin/playwright test --reporter=list,json || status=1

@@ -26,11 +26,13 @@ mkdir -p .data/log .data/run
 bash scripts/down.sh --quiet
 node_modules/.bin/tsx worker/index.ts >>.data/log/worker.log 2>&1 &
 echo $! >.data/run/worker.pid
+step "demo captures (analysed by the worker in the background)"
+node_modules/.bin/tsx --import ./scripts/support/server-only-hook.mjs scripts/seed-captures.ts
 if $detach; then
   nohup node_modules/.bin/next start -H 127.0.0.1 -p 3000 >>.data/log/web.log 2>&1 &
   echo $! >.data/run/web.pid
   for _ in $(seq 1 60); do
-    curl -fsS -o /dev/null http://127.0.0.1:3000/sign-in && break
+    curl -fsS -o /dev/null http://127.0.0.1:3000/sign-in 2>/dev/null && break
     sleep 1
   done
   echo "Emfolio is up on http://127.0.0.1:3000 (worker and web in the background; bash scripts/down.sh stops them)"

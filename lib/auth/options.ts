@@ -1,8 +1,12 @@
 import type { NextAuthOptions } from "next-auth";
-import CredentialsProvider from "next-auth/providers/credentials";
+import CredentialsModule from "next-auth/providers/credentials";
 import { z } from "zod";
 import type { Role } from "@/db/schema";
 import { authenticate } from "./authenticate";
+
+// next-auth 4 ships CommonJS: Node scripts see the module object where the bundler sees the function.
+const CredentialsProvider =
+  (CredentialsModule as unknown as { default?: typeof CredentialsModule }).default ?? CredentialsModule;
 
 export const credentialsSchema = z.object({
   email: z.email().max(254),

@@ -1,0 +1,46 @@
+import type { DemoWave } from "./waveforms";
+
+// Which demo units get a capture, and what their invented machines do on the bench.
+export type DemoCapture = {
+  serial: string;
+  testKind: "no-load" | "back-emf";
+  speedRpm: number;
+  roles: Record<string, string>;
+  wave: Omit<DemoWave, "seed">;
+  notes: string;
+};
+
+const LL3 = { "V_AB (V)": "vab", "V_BC (V)": "vbc", "V_CA (V)": "vca" };
+const healthy = { 5: 0.9, 7: 0.6, 11: 0.3 };
+
+function kg45(i: number, extra: Partial<DemoWave> = {}, notes = "Open-circuit at rated speed."): DemoCapture {
+  return {
+    serial: `KG45-26${String(301 + i).padStart(4, "0")}`, testKind: "no-load", speedRpm: 1500, roles: LL3, notes,
+    wave: { lineVoltsRms: 400 * (1 + ((i % 3) - 1) * 0.004), frequencyHz: 50, phases: 3, harmonicsPercent: healthy, ...extra },
+  };
+}
+
+export const demoCaptures: DemoCapture[] = [
+  kg45(0), kg45(1), kg45(2),
+  kg45(3, { harmonicsPercent: { 3: 0.5, 5: 4.6, 7: 3.4, 11: 1.2 } }, "Open-circuit; rotor from the second supplier batch."),
+  kg45(4), kg45(5),
+  kg45(6, { phaseScale: [1, 0.985, 1.006] }, "Open-circuit after stator rewind."),
+  kg45(7, { harmonicsPercent: { 5: 1.1, 7: 0.8 } }, "Open-circuit; new lamination supplier."),
+  ...[0, 1, 2].map((i): DemoCapture => ({
+    serial: `KG60-26${String(41 + i).padStart(4, "0")}`, testKind: "no-load", speedRpm: 1800, roles: LL3, notes: "Open-circuit, 60 Hz build.",
+    wave: { lineVoltsRms: 480 * (1 - i * 0.003), frequencyHz: 60, phases: 3, harmonicsPercent: healthy },
+  })),
+  {
+    serial: "KS8-261107", testKind: "no-load", speedRpm: 3000, roles: { "V_OUT (V)": "v" }, notes: "Single-phase, open-circuit.",
+    wave: { lineVoltsRms: 231, frequencyHz: 50, phases: 1, harmonicsPercent: { 3: 0.9, 5: 0.6 } },
+  },
+  ...[0, 1, 2, 3, 4].map((i): DemoCapture => {
+    // 8 poles at 1000 rpm: 66.7 Hz; Ke 120 V/krpm line rms on the nameplate.
+    const keFactor = i === 3 ? 0.93 : 1 + (i - 2) * 0.006;
+    return {
+      serial: `PX120-B${1021 + i}`, testKind: "back-emf", speedRpm: 1000, roles: LL3,
+      notes: i === 3 ? "Back-EMF spin test; rotor returned from the field after an over-temperature event." : "Back-EMF spin test at 1000 rpm, magnets at 23 °C.",
+      wave: { lineVoltsRms: 120 * keFactor, frequencyHz: (8 * 1000) / 120, phases: 3, harmonicsPercent: { 5: 1.8, 7: 0.9 }, sampleRateHz: 40_000 },
+    };
+  }),
+];
