@@ -6,7 +6,7 @@ import { unitScopeWhere, type Scope } from "./scope";
 /** Ratings that have at least one unit in scope, with how many units carry each. */
 export async function listRatingsInScope(scope: Scope) {
   return getDb()
-    .select({ id: ratings.id, modelCode: ratings.modelCode, title: ratings.title, unitCount: sql<number>`count(*)`.mapWith(Number) })
+    .select({ id: ratings.id, modelCode: ratings.modelCode, title: ratings.title, nameplate: ratings.nameplate, unitCount: sql<number>`count(*)`.mapWith(Number) })
     .from(ratings)
     .innerJoin(units, eq(units.ratingId, ratings.id))
     .where(unitScopeWhere(scope))

@@ -26,11 +26,13 @@ export async function getTrendsView(ratingIdRaw: string | undefined) {
   const ratingList = await listRatingsInScope(scope);
   const ratingId = z.uuid().safeParse(ratingIdRaw).success ? ratingIdRaw : ratingList[0]?.id;
   const rating = ratingList.find((r) => r.id === ratingId);
-  if (!rating) return { ratings: ratingList, rating: null, points: [], metrics: [] };
+  if (!rating) return { ratings: ratingList.map(({ nameplate: _n, ...r }) => r), rating: null, points: [], metrics: [] };
   const points = await listTrendPoints(scope, rating.id);
-  const metrics = TREND_METRICS.map((m) => {
-    const series = points.flatMap((p) => (p[m.key] === null ? [] : [{ t: p.capturedAt.getTime() / 1000, v: p[m.key] as number, serial: p.serial }]));
+  // Ke is a permanent-magnet figure: shown for models whose nameplate states one.
+  const hasKe = typeof rating.nameplate === "object" && rating.nameplate !== null && "keLineRmsPerKrpm" in rating.nameplate;
+  const metrics = TREND_METRICS.filter((m) => m.key !== "keLineRmsPerKrpm" || hasKe).map((m) => {
+    const series = points.flatMap((p) => (p[m.key] === null ? [] : [{ v: p[m.key] as number, serial: p.serial }]));
     return { ...m, series, summary: summarise(series.map((s) => s.v)) };
   }).filter((m) => m.series.length > 0);
-  return { ratings: ratingList, rating, points, metrics };
+  return { ratings: ratingList.map(({ nameplate: _n, ...r }) => r), rating, points, metrics };
 }
