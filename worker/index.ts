@@ -10,6 +10,7 @@ import { sweepAbandonedCaptures } from "./recovery";
 // Parsing and analysis run in sandboxed child processes, one per concurrent job.
 
 const env = getEnv();
+const SHUTDOWN_GRACE_MS = 30_000;
 const log = (message: string) => console.log(`${new Date().toISOString()} worker: ${message}`);
 
 const connection = createRedis("worker");
@@ -63,6 +64,12 @@ async function shutdown(signal: string): Promise<void> {
   stopping = true;
   log(`${signal}: finishing the running jobs, then stopping`);
   clearInterval(sweepTimer);
+  // A job stuck on a dead connection must not keep the process alive: its lock expires and the
+  // next worker takes it over, so leaving is safe.
+  setTimeout(() => {
+    log(`still busy after ${SHUTDOWN_GRACE_MS / 1000} s: exiting; unfinished jobs will be taken over`);
+    process.exit(1);
+  }, SHUTDOWN_GRACE_MS).unref();
   try {
     await worker.close();
     await closeAnalysisQueue();

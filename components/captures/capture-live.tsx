@@ -8,10 +8,11 @@ import { CaptureStateBadge, ProgressBar } from "./capture-state-badge";
 import { CapturePlots } from "./capture-plots";
 import { captureKeys, fetchCaptureStatus, isFinalState } from "./fetchers";
 import { MetricsTable } from "./metrics-table";
+import { ReanalyseButton } from "./reanalyse-button";
 import { CaptureQueryProvider } from "./query-provider";
 import { VerdictsTable, WarningsList } from "./verdicts-table";
 
-function CaptureLiveInner({ initial }: { initial: CaptureStatusView }) {
+function CaptureLiveInner({ initial, canReanalyse }: { initial: CaptureStatusView; canReanalyse: boolean }) {
   const { data } = useQuery({
     queryKey: captureKeys.status(initial.id),
     queryFn: () => fetchCaptureStatus(initial.id),
@@ -26,9 +27,11 @@ function CaptureLiveInner({ initial }: { initial: CaptureStatusView }) {
         <span className="text-sm font-semibold">State</span>
         <CaptureStateBadge state={c.state} progress={c.progress} />
         {analysis ? <><span className="text-sm font-semibold">Overall</span><span data-testid="overall"><StatusTag status={analysis.report.overall} /></span></> : null}
+        {canReanalyse && isFinalState(c.state) ? <span className="ml-auto"><ReanalyseButton captureId={c.id} /></span> : null}
         {c.state === "analysing" ? <div className="w-full"><ProgressBar fraction={c.progress / 100} label="Analysis" /></div> : null}
         {c.state === "queued" || c.state === "uploading" ? <p className="w-full text-xs text-ink-600">{c.stateMessage ?? "Waiting for a worker; this page updates by itself."}</p> : null}
       </div>
+      {analysis && !isFinalState(c.state) ? <Notice kind="info">A new analysis run is on its way; the result below is the current one until it lands.</Notice> : null}
       {c.state === "rejected" ? <Notice kind="problem" title="The capture was rejected">{c.stateMessage}</Notice> : null}
       {c.state === "failed" ? <Notice kind="problem" title="The analysis failed">{c.stateMessage}</Notice> : null}
       {analysis ? (
@@ -51,10 +54,10 @@ function CaptureLiveInner({ initial }: { initial: CaptureStatusView }) {
 }
 
 /** The live part of the capture page: state, then verdicts, metrics and plots once analysed. */
-export function CaptureLive({ initial }: { initial: CaptureStatusView }) {
+export function CaptureLive({ initial, canReanalyse }: { initial: CaptureStatusView; canReanalyse: boolean }) {
   return (
     <CaptureQueryProvider>
-      <CaptureLiveInner initial={initial} />
+      <CaptureLiveInner initial={initial} canReanalyse={canReanalyse} />
     </CaptureQueryProvider>
   );
 }

@@ -34,4 +34,6 @@ export const postComplete = (id: string, parts?: { partNumber: number; etag: str
 export const postPresignParts = (id: string, partNumbers: number[]) =>
   call<{ parts: { partNumber: number; url: string }[] }>(`/api/captures/${id}/parts`, { method: "POST", body: JSON.stringify({ partNumbers }) });
 
+export const postReanalyse = (id: string) => call<{ queued: number }>(`/api/captures/${id}/reanalyse`, { method: "POST", body: "{}" });
+
 export const isFinalState = (state: CaptureStatusView["state"]) => state === "analysed" || state === "rejected" || state === "failed";

@@ -138,3 +138,18 @@ export async function listIdleCapturesAwaitingAnalysis(idleMs: number, limit = 5
     .orderBy(captures.updatedAt)
     .limit(limit);
 }
+
+/**
+ * Puts finished captures back in the queue for a new run (a newer engine, an edited tolerance
+ * profile). Their current analysis stays until the new one replaces it; both are kept.
+ */
+export async function requeueFinishedCaptures(scope: Scope, target: { captureId: string } | { ratingId: string }) {
+  const which = "captureId" in target
+    ? eq(captures.id, target.captureId)
+    : sql`${captures.unitId} in (select ${units.id} from ${units} where ${units.ratingId} = ${target.ratingId})`;
+  return getDb()
+    .update(captures)
+    .set({ state: "queued", progress: 0, stateMessage: "Re-analysis requested", updatedAt: new Date() })
+    .where(and(which, inArray(captures.state, ["analysed", "rejected", "failed"]), captureScopeWhere(scope)))
+    .returning({ captureId: captures.id, labId: captures.labId });
+}

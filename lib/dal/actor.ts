@@ -1,5 +1,6 @@
 import "server-only";
 import type { Scope } from "@/db/queries/scope";
+import type { Role } from "@/db/schema";
 import { findStationKeyByPrefix, touchStationKey } from "@/db/queries/station-keys";
 import { HttpError, requireApiUser } from "@/lib/auth/guards";
 import type { SessionUser } from "@/lib/auth/options";
@@ -9,6 +10,7 @@ import { scopeFor } from "./scope";
 /** Who is asking: a signed-in person or a bench PC with a station key. Both end in a Scope. */
 export type Actor = {
   scope: Scope;
+  role: Role | "station";
   userId: string | null;
   stationKeyId: string | null;
   stationId: string | null;
@@ -18,7 +20,7 @@ export type Actor = {
 
 export function actorForUser(user: SessionUser): Actor {
   return {
-    scope: scopeFor(user), userId: user.id, stationKeyId: null, stationId: null,
+    scope: scopeFor(user), role: user.role, userId: user.id, stationKeyId: null, stationId: null,
     canUpload: user.role === "admin" || user.role === "operator",
   };
 }
@@ -41,7 +43,7 @@ export async function requireStationActor(request: Request): Promise<Actor> {
   }
   const stale = !found.key.lastUsedAt || Date.now() - found.key.lastUsedAt.getTime() > 60_000;
   if (stale) await touchStationKey(found.key.id);
-  return { scope: { kind: "lab", labId: found.labId }, userId: null, stationKeyId: found.key.id, stationId: found.key.stationId, canUpload: true };
+  return { scope: { kind: "lab", labId: found.labId }, role: "station", userId: null, stationKeyId: found.key.id, stationId: found.key.stationId, canUpload: true };
 }
 
 export function requireUploader(actor: Actor): Scope & { kind: "lab" } {

@@ -29,7 +29,8 @@ export async function getCaptureStatusView(actor: Actor, captureId: string): Pro
   const found = await getCaptureDetail(actor.scope, captureId);
   if (!found) return null;
   const c = found.capture;
-  const analysis = c.state === "analysed" ? await getCurrentAnalysis(actor.scope, captureId) : undefined;
+  // A capture queued again for re-analysis keeps showing its current result until the new one lands.
+  const analysis = c.state === "uploading" ? undefined : await getCurrentAnalysis(actor.scope, captureId);
   return {
     id: c.id, unitId: c.unitId, serial: found.serial, modelCode: found.modelCode, ratingTitle: found.ratingTitle,
     state: c.state, stateMessage: c.stateMessage, progress: c.progress, attempts: c.attempts,
@@ -94,7 +95,8 @@ export async function getCapturePageView(captureId: string) {
   const actor = actorForUser(user);
   const capture = await getCaptureStatusView(actor, captureId);
   if (!capture) return null;
-  return { capture, history: await getCaptureHistory(actor, captureId), canUpload: actor.canUpload };
+  const canReanalyse = actor.scope.kind === "lab" && (user.role === "admin" || user.role === "qa");
+  return { capture, history: await getCaptureHistory(actor, captureId), canReanalyse };
 }
 
 /** The unit page's captures list; the unit itself was already checked by the caller's scope. */

@@ -99,7 +99,12 @@ export async function startWorker(extraEnv: Record<string, string> = {}): Promis
   return {
     proc,
     output: () => out,
-    stop: async () => { if (proc.exitCode === null) proc.kill("SIGTERM"); await exited; },
+    stop: async () => {
+      if (proc.exitCode === null) proc.kill("SIGTERM");
+      const timer = setTimeout(() => proc.kill("SIGKILL"), 20_000);
+      await exited;
+      clearTimeout(timer);
+    },
     kill: async () => { if (proc.exitCode === null) proc.kill("SIGKILL"); await exited; },
   };
 }

@@ -1,11 +1,14 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/db/client";
-import { getCurrentAnalysis } from "@/db/queries/analyses";
+import { getCurrentAnalysis, listAnalysisHistory } from "@/db/queries/analyses";
 import { getUnit } from "@/db/queries/units";
+import { HttpError } from "@/lib/auth/guards";
+import { actorForUser } from "@/lib/dal/actor";
+import { requestReanalysis } from "@/lib/dal/reanalysis";
 import { closeAnalysisQueue } from "@/lib/server/queue";
 import { makeBrokenCsv, makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
 import { seededOrgs } from "./helpers";
-import { createStationToken, startWorker, unitId, uploadViaApi, waitForState, type WorkerProcess } from "./pipeline-support";
+import { createOtherLab, createStationToken, startWorker, unitId, uploadViaApi, waitForState, type WorkerProcess } from "./pipeline-support";
 
 let worker: WorkerProcess;
 let labId: string;
@@ -54,5 +57,22 @@ describe("bench API upload → queue → worker → PostgreSQL", () => {
     // Line 501 of the file: three preamble lines, the header, then data (index 500 of the lines).
     expect(capture.stateMessage).toMatch(/Not a number: "oops" \(line 501, column "V_BN \(V\)"\)/);
     expect(capture.attempts).toBe(1);
+  });
+});
+
+describe("requestReanalysis(actor, target)", () => {
+  it("re-running an analysed capture keeps the earlier result in history and makes the new one current", async () => {
+    const { id } = await uploadViaApi(token, makeThreePhaseCsv({ variant: (run % 1000) + 5000 }), { unitSerial: "KG45-260301" });
+    await waitForState(labId, id, ["analysed"]);
+    const other = await createOtherLab(`r${run}`);
+    const admin = actorForUser({ ...other.sessionUser, role: "admin", organisationId: labId });
+    const operator = actorForUser({ ...other.sessionUser, organisationId: labId });
+    await expect(requestReanalysis(operator, { captureId: id })).rejects.toBeInstanceOf(HttpError);
+    expect(await requestReanalysis(admin, { captureId: id })).toEqual({ queued: 1 });
+    await waitForState(labId, id, ["analysed"]);
+    const history = await listAnalysisHistory({ kind: "lab", labId }, id);
+    expect(history).toHaveLength(2);
+    expect(history.filter((h) => h.current)).toHaveLength(1);
+    expect(history[0]?.current).toBe(true);
   });
 });

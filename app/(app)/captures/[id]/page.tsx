@@ -34,7 +34,7 @@ export default async function CapturePage({ params }: { params: Promise<{ id: st
         <div><dt className="text-ink-600">sha256</dt><dd className="mt-1 truncate font-mono text-xs" title={c.sha256}>{c.sha256}</dd></div>
         {c.notes ? <div className="col-span-full"><dt className="text-ink-600">Notes</dt><dd className="mt-1 whitespace-pre-wrap">{c.notes}</dd></div> : null}
       </dl>
-      <CaptureLive initial={c} />
+      <CaptureLive initial={c} canReanalyse={view.canReanalyse} />
       {history.length > 1 ? (
         <section className="mt-8">
           <h2 className="mb-2 text-lg font-semibold">Analysis history</h2>
