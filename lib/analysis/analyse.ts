@@ -20,21 +20,24 @@ const FEW_CYCLES = 5;
  * Harmonics are taken over at most this many samples (whole cycles from the start): the spectrum of a
  * steady machine settles long before, and O(N·H) work on 10^7 samples would dominate the run.
  */
-const HARMONIC_WINDOW_SAMPLES = 1 << 19;
+const HARMONIC_WINDOW_SAMPLES = 1 << 18;
+const LEVEL_SAMPLES = 1 << 16;
 const REFERENCE_ORDER: ChannelRole[] = ["van", "vab", "v", "vbn", "vbc", "vcn", "vca", "ia", "ib", "ic"];
 
 /** Frequency of the reference channel: coarse FFT (or zero crossings), then phase-drift refinement. */
 function measureFrequency(samples: Float64Array, sampleRateHz: number, id: string, warnings: QualityWarning[]): { frequencyHz: number; zeroCrossingHz: number | null } {
+  // Crossing level and hysteresis from the leading stretch: plenty of cycles, one pass fewer.
+  const lead = Math.min(samples.length, LEVEL_SAMPLES);
   let sum = 0;
   let max = Number.NEGATIVE_INFINITY;
   let min = Number.POSITIVE_INFINITY;
-  for (let n = 0; n < samples.length; n++) {
+  for (let n = 0; n < lead; n++) {
     const v = samples[n] as number;
     sum += v;
     if (v > max) max = v;
     if (v < min) min = v;
   }
-  const mean = sum / samples.length;
+  const mean = sum / lead;
   const amplitude = Math.max(max - mean, mean - min);
   const crossings = estimateByZeroCrossings(samples, sampleRateHz, mean, amplitude);
   const spectral = estimateBySpectrum(samples, sampleRateHz, mean);

@@ -68,7 +68,8 @@ function concat(chunks: Uint8Array[], total: number): Uint8Array {
 /**
  * Streaming capture parser: push chunks of bytes as they arrive, then call `finish`.
  * Only the first lines are buffered (to find the dialect and header); the body goes straight
- * into typed arrays. Throws CaptureRejection for any input it cannot take.
+ * into typed arrays. No chunk is kept after `push` returns, so callers may reuse one buffer.
+ * Throws CaptureRejection for any input it cannot take.
  */
 export function createCaptureParser(options: ParseOptions = {}): { push(chunk: Uint8Array): void; finish(): ParsedCapture } {
   const maxBytes = options.maxBytes ?? DEFAULT_MAX_BYTES;
@@ -117,7 +118,8 @@ export function createCaptureParser(options: ParseOptions = {}): { push(chunk: U
         body.push(chunk);
         return;
       }
-      headChunks.push(chunk);
+      // Copied: the caller may reuse its buffer for the next chunk.
+      headChunks.push(chunk.slice());
       headBytes += chunk.length;
       for (let i = chunk.indexOf(10); i >= 0; i = chunk.indexOf(10, i + 1)) headNewlines++;
       if (headNewlines < headLineTarget && headBytes < HEAD_BYTES) return;

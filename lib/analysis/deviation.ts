@@ -47,11 +47,12 @@ export function computeDeviationFactor(
       cosines[k] = Math.cos(angle);
       values[k] = (samples[first + k] as number) - dc;
     }
-    const cost = (phi: number): number => {
+    // Stops early once the gap passes `bound`: a grid point that cannot win need not be finished.
+    const cost = (phi: number, bound = Number.POSITIVE_INFINITY): number => {
       const c = peak * Math.cos(phi);
       const s = peak * Math.sin(phi);
       let largest = 0;
-      for (let k = 0; k < count; k++) {
+      for (let k = 0; k < count && largest <= bound; k++) {
         const gap = Math.abs((values[k] as number) - (sines[k] as number) * c - (cosines[k] as number) * s);
         if (gap > largest) largest = gap;
       }
@@ -62,7 +63,7 @@ export function computeDeviationFactor(
     let bestCost = Number.POSITIVE_INFINITY;
     for (let i = 0; i < GRID_POINTS; i++) {
       const phi = centre - GRID_HALF_WIDTH_RAD + i * step;
-      const value = cost(phi);
+      const value = cost(phi, bestCost);
       if (value < bestCost) {
         bestCost = value;
         bestPhi = phi;

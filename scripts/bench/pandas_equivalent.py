@@ -13,7 +13,7 @@ import numpy as np
 import pandas as pd
 
 HARMONICS = 50
-HARMONIC_WINDOW_SAMPLES = 1 << 19
+HARMONIC_WINDOW_SAMPLES = 1 << 18
 DEVIATION_CYCLES = 50
 
 
