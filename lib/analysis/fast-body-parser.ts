@@ -75,6 +75,7 @@ export function createFastBodyParser(
       let filled = 0;
       for (;;) {
         let c = buf[i] as number;
+        let done = false;
         if ((c >= 48 && c <= 57) || c === 45) {
           // Fast path for the common cell, "-123.4567" right up to its delimiter: at most 15
           // digits, so mantissa and 10^k are exact and one division rounds correctly. Anything
@@ -107,112 +108,110 @@ export function createFastBodyParser(
             const value = fraction === 0 ? mantissa : mantissa / (POW10[fraction] as number);
             row[column] = negative ? -value : value;
             filled++;
-            if (c === delimiter) {
-              i++;
-              column++;
-              continue;
-            }
-            break;
+            done = true;
+          } else {
+            i = cellStart;
+            c = buf[i] as number;
           }
-          i = cellStart;
-          c = buf[i] as number;
         }
-        while (c === SPACE || (c === TAB && skipsTab)) c = buf[++i] as number;
-        const quoted = c === QUOTE;
-        if (quoted) c = buf[++i] as number;
-        const start = i;
-        if (c === delimiter || c === NL || c === CR || (quoted && c === QUOTE)) {
-          if (column < width) row[column] = Number.NaN;
+        if (!done) {
+          while (c === SPACE || (c === TAB && skipsTab)) c = buf[++i] as number;
+          const quoted = c === QUOTE;
           if (quoted) c = buf[++i] as number;
-        } else {
-          let negative = false;
-          if (c === 45) {
-            negative = true;
-            c = buf[++i] as number;
-          } else if (c === 43) {
-            c = buf[++i] as number;
-          }
-          let mantissa = 0;
-          let digits = 0;
-          let exponent = 0;
-          let exact = true;
-          const digitsStart = i;
-          // Integer part; leading zeros are not significant.
-          while (c === 48) c = buf[++i] as number;
-          let d = c - 48;
-          while (d >= 0 && d <= 9) {
-            if (digits < MAX_EXACT_DIGITS) {
-              mantissa = mantissa * 10 + d;
-              digits++;
-            } else {
-              exact = false;
+          const start = i;
+          if (c === delimiter || c === NL || c === CR || (quoted && c === QUOTE)) {
+            if (column < width) row[column] = Number.NaN;
+            if (quoted) c = buf[++i] as number;
+          } else {
+            let negative = false;
+            if (c === 45) {
+              negative = true;
+              c = buf[++i] as number;
+            } else if (c === 43) {
+              c = buf[++i] as number;
             }
-            c = buf[++i] as number;
-            d = c - 48;
-          }
-          let seen = i > digitsStart;
-          if (c === decimalByte) {
-            c = buf[++i] as number;
-            const fractionStart = i;
-            if (mantissa === 0) {
-              while (c === 48) {
-                exponent--;
-                c = buf[++i] as number;
-              }
-            }
-            d = c - 48;
+            let mantissa = 0;
+            let digits = 0;
+            let exponent = 0;
+            let exact = true;
+            const digitsStart = i;
+            // Integer part; leading zeros are not significant.
+            while (c === 48) c = buf[++i] as number;
+            let d = c - 48;
             while (d >= 0 && d <= 9) {
               if (digits < MAX_EXACT_DIGITS) {
                 mantissa = mantissa * 10 + d;
                 digits++;
-                exponent--;
               } else {
                 exact = false;
               }
               c = buf[++i] as number;
               d = c - 48;
             }
-            seen = seen || i > fractionStart;
-          }
-          if (!seen) reject(buf, start, to, column);
-          if (c === 101 || c === 69) {
-            c = buf[++i] as number;
-            let expNegative = false;
-            if (c === 45) {
-              expNegative = true;
+            let seen = i > digitsStart;
+            if (c === decimalByte) {
               c = buf[++i] as number;
-            } else if (c === 43) {
-              c = buf[++i] as number;
-            }
-            const expStart = i;
-            let expValue = 0;
-            d = c - 48;
-            while (d >= 0 && d <= 9) {
-              if (expValue < 100000) expValue = expValue * 10 + d;
-              c = buf[++i] as number;
+              const fractionStart = i;
+              if (mantissa === 0) {
+                while (c === 48) {
+                  exponent--;
+                  c = buf[++i] as number;
+                }
+              }
               d = c - 48;
+              while (d >= 0 && d <= 9) {
+                if (digits < MAX_EXACT_DIGITS) {
+                  mantissa = mantissa * 10 + d;
+                  digits++;
+                  exponent--;
+                } else {
+                  exact = false;
+                }
+                c = buf[++i] as number;
+                d = c - 48;
+              }
+              seen = seen || i > fractionStart;
             }
-            if (i === expStart) reject(buf, start, to, column);
-            exponent += expNegative ? -expValue : expValue;
+            if (!seen) reject(buf, start, to, column);
+            if (c === 101 || c === 69) {
+              c = buf[++i] as number;
+              let expNegative = false;
+              if (c === 45) {
+                expNegative = true;
+                c = buf[++i] as number;
+              } else if (c === 43) {
+                c = buf[++i] as number;
+              }
+              const expStart = i;
+              let expValue = 0;
+              d = c - 48;
+              while (d >= 0 && d <= 9) {
+                if (expValue < 100000) expValue = expValue * 10 + d;
+                c = buf[++i] as number;
+                d = c - 48;
+              }
+              if (i === expStart) reject(buf, start, to, column);
+              exponent += expNegative ? -expValue : expValue;
+            }
+            const end = i;
+            if (quoted) {
+              if (c !== QUOTE) reject(buf, start, to, column);
+              c = buf[++i] as number;
+            }
+            while (c === SPACE || (c === TAB && skipsTab)) c = buf[++i] as number;
+            if (c !== delimiter && c !== NL && c !== CR) reject(buf, start, to, column);
+            if (column >= width) reject(buf, start, to, column);
+            let value: number;
+            if (!exact || exponent > 22 || exponent < -22) {
+              value = slowValue(buf, start, end);
+              if (!Number.isFinite(value)) reject(buf, start, to, column);
+            } else {
+              value = exponent >= 0 ? mantissa * (POW10[exponent] as number) : mantissa / (POW10[-exponent] as number);
+              if (negative) value = -value;
+            }
+            row[column] = value;
+            filled++;
           }
-          const end = i;
-          if (quoted) {
-            if (c !== QUOTE) reject(buf, start, to, column);
-            c = buf[++i] as number;
-          }
-          while (c === SPACE || (c === TAB && skipsTab)) c = buf[++i] as number;
-          if (c !== delimiter && c !== NL && c !== CR) reject(buf, start, to, column);
-          if (column >= width) reject(buf, start, to, column);
-          let value: number;
-          if (!exact || exponent > 22 || exponent < -22) {
-            value = slowValue(buf, start, end);
-            if (!Number.isFinite(value)) reject(buf, start, to, column);
-          } else {
-            value = exponent >= 0 ? mantissa * (POW10[exponent] as number) : mantissa / (POW10[-exponent] as number);
-            if (negative) value = -value;
-          }
-          row[column] = value;
-          filled++;
         }
         if (c === delimiter) {
           i++;
