@@ -153,3 +153,12 @@ export async function requeueFinishedCaptures(scope: Scope, target: { captureId:
     .where(and(which, inArray(captures.state, ["analysed", "rejected", "failed"]), captureScopeWhere(scope)))
     .returning({ captureId: captures.id, labId: captures.labId });
 }
+
+/** State and server timestamps of given captures (the pipeline benchmark's measurements). */
+export async function listBenchCaptureTimes(scope: Scope, captureIds: string[]) {
+  if (captureIds.length === 0) return [];
+  return getDb()
+    .select({ id: captures.id, state: captures.state, uploadedAt: captures.uploadedAt, analysedAt: captures.analysedAt })
+    .from(captures)
+    .where(and(inArray(captures.id, captureIds), captureScopeWhere(scope)));
+}

@@ -45,6 +45,11 @@ export async function registerViaApi(token: string, csv: string, meta: Record<st
   return { status: res.status, body: await res.json() };
 }
 
+export async function completeViaApi(token: string, id: string, parts?: { partNumber: number; etag: string }[]) {
+  const res = await completeRoute(jsonRequest(`http://test/api/v1/captures/${id}/complete`, token, { parts }), { params: Promise.resolve({ id }) });
+  return { status: res.status, body: (await res.json()) as { state?: string; error?: string } };
+}
+
 /** Register → PUT to the presigned URL → complete, as a bench script would. */
 export async function uploadViaApi(token: string, csv: string, meta: Record<string, unknown>) {
   const reg = await registerViaApi(token, csv, meta);
@@ -65,8 +70,8 @@ export async function uploadViaApi(token: string, csv: string, meta: Record<stri
     }
   }
   const id = reg.body.capture.id;
-  const done = await completeRoute(jsonRequest(`http://test/api/v1/captures/${id}/complete`, token, { parts }), { params: Promise.resolve({ id }) });
-  return { id, register: reg, completeStatus: done.status, complete: (await done.json()) as { state?: string; error?: string } };
+  const done = await completeViaApi(token, id, parts);
+  return { id, register: reg, completeStatus: done.status, complete: done.body };
 }
 
 export async function waitForState(labId: string, captureId: string, states: CaptureState[], timeoutMs = 45_000) {

@@ -8,7 +8,7 @@ import { requestReanalysis } from "@/lib/dal/reanalysis";
 import { closeAnalysisQueue } from "@/lib/server/queue";
 import { makeBrokenCsv, makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
 import { seededOrgs } from "./helpers";
-import { createOtherLab, createStationToken, startWorker, unitId, uploadViaApi, waitForState, type WorkerProcess } from "./pipeline-support";
+import { completeViaApi, createOtherLab, createStationToken, registerViaApi, startWorker, unitId, uploadViaApi, waitForState, type WorkerProcess } from "./pipeline-support";
 
 let worker: WorkerProcess;
 let labId: string;
@@ -57,6 +57,21 @@ describe("bench API upload → queue → worker → PostgreSQL", () => {
     // Line 501 of the file: three preamble lines, the header, then data (index 500 of the lines).
     expect(capture.stateMessage).toMatch(/Not a number: "oops" \(line 501, column "V_BN \(V\)"\)/);
     expect(capture.attempts).toBe(1);
+  });
+});
+
+describe("abuse of presigned upload URLs", () => {
+  it("other bytes PUT through a capture's URL (same size) end rejected by the sha256 check, never analysed", async () => {
+    const declared = makeThreePhaseCsv({ variant: (run % 1000) + 7000 });
+    const other = declared.replace("V_AN (V)", "V_XX (V)");
+    const reg = await registerViaApi(token, declared, { unitSerial: "KG45-260302" });
+    const upload = reg.body.upload;
+    if (upload?.kind !== "single") throw new Error("expected a single-PUT plan");
+    expect((await fetch(upload.url, { method: "PUT", headers: upload.headers, body: other })).ok).toBe(true);
+    expect((await completeViaApi(token, reg.body.capture?.id ?? "")).status).toBe(202);
+    const capture = await waitForState(labId, reg.body.capture?.id ?? "", ["analysed", "rejected", "failed"]);
+    expect(capture.state).toBe("rejected");
+    expect(capture.stateMessage).toMatch(/does not match the sha256/);
   });
 });
 

@@ -1,0 +1,132 @@
+/**
+ * Pipeline benchmark: N captures of R rows pushed through the bench API of a running app, analysed
+ * by 1 and then 2 worker processes started here. Reports captures per minute and the p50/p95 time
+ * from "upload complete" (the row turning queued) to "analysed", both stamped by the server.
+ *
+ *   set -a; source .data/env.test; set +a
+ *   node --import tsx scripts/bench-pipeline.ts --base-url http://127.0.0.1:3100 [--captures 200] [--rows 100000] [--workers 1,2]
+ *
+ * The app at --base-url must run on the same env (database, bucket, queue prefix). Other workers on
+ * the queue would skew the figures: stop them first (the script refuses to start otherwise).
+ */
+import { spawn, type ChildProcess } from "node:child_process";
+import { createHash } from "node:crypto";
+import { parseArgs } from "node:util";
+import { closeDb } from "@/db/client";
+import { listBenchCaptureTimes } from "@/db/queries/captures";
+import { findStationKeyByPrefix, insertStationKey, revokeStationKey } from "@/db/queries/station-keys";
+import { listStations } from "@/db/queries/stations";
+import { findActiveUserByEmail } from "@/db/queries/users";
+import { demoUsers } from "@/db/seed-data";
+import { generateStationKey } from "@/lib/server/hash";
+import { closeAnalysisQueue, getAnalysisQueue } from "@/lib/server/queue";
+import { makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
+import { printTable } from "./bench/table";
+
+const { values: args } = parseArgs({
+  options: {
+    "base-url": { type: "string", default: "http://127.0.0.1:3100" },
+    captures: { type: "string", default: "200" },
+    rows: { type: "string", default: "100000" },
+    workers: { type: "string", default: "1,2" },
+    serial: { type: "string", default: "KG45-260301" },
+  },
+});
+const BASE = (args["base-url"] ?? "").replace(/\/$/, "");
+const COUNT = Number(args.captures);
+const ROWS = Number(args.rows);
+const UPLOAD_LANES = 4;
+
+async function createKey(): Promise<{ token: string; keyId: string; labId: string }> {
+  const admin = await findActiveUserByEmail(demoUsers.find((u) => u.role === "admin")?.email ?? "");
+  if (!admin) throw new Error("the demo lab manager is missing: seed the database first");
+  const station = (await listStations({ kind: "lab", labId: admin.organisationId }))[0];
+  if (!station) throw new Error("the lab has no bench");
+  const key = generateStationKey();
+  await insertStationKey({ stationId: station.id, prefix: key.prefix, secretHash: key.secretHash, label: "pipeline benchmark", createdById: admin.id });
+  const row = await findStationKeyByPrefix(key.prefix);
+  return { token: key.token, keyId: row?.key.id ?? "", labId: admin.organisationId };
+}
+
+async function api<T>(path: string, token: string, body: unknown): Promise<T> {
+  const res = await fetch(`${BASE}${path}`, { method: "POST", headers: { Authorization: `Bearer ${token}`, "Content-Type": "application/json" }, body: JSON.stringify(body) });
+  const json = (await res.json()) as T & { error?: string };
+  if (!res.ok) throw new Error(`${path}: ${res.status} ${json.error ?? ""}`);
+  return json;
+}
+
+type Plan = { capture: { id: string }; upload: { kind: "single"; url: string; headers: Record<string, string> } | { kind: "multipart" } | null };
+
+async function uploadOne(token: string, csv: string, name: string): Promise<string> {
+  const sha256 = createHash("sha256").update(csv).digest("hex");
+  const plan = await api<Plan>("/api/v1/captures", token, { unitSerial: args.serial, testKind: "no-load", speedRpm: 1500, fileName: name, sizeBytes: Buffer.byteLength(csv), sha256 });
+  if (plan.upload?.kind !== "single") throw new Error("the benchmark sends files below the multipart threshold only");
+  const put = await fetch(plan.upload.url, { method: "PUT", headers: plan.upload.headers, body: csv });
+  if (!put.ok) throw new Error(`PUT ${put.status}`);
+  await api(`/api/v1/captures/${plan.capture.id}/complete`, token, {});
+  return plan.capture.id;
+}
+
+function startWorker(): Promise<ChildProcess> {
+  const proc = spawn(process.execPath, ["--import", "tsx", "worker/index.ts"], { env: { ...process.env, WORKER_CONCURRENCY: "1" }, stdio: ["ignore", "pipe", "inherit"] });
+  return new Promise((resolve, reject) => {
+    proc.stdout?.on("data", (d: Buffer) => { if (d.toString().includes("ready:")) resolve(proc); });
+    proc.once("exit", (code) => reject(new Error(`worker exited (${code}) before it was ready`)));
+  });
+}
+
+const quantile = (sorted: number[], q: number) => sorted[Math.min(sorted.length - 1, Math.floor(q * (sorted.length - 1)))] ?? NaN;
+
+async function runOnce(workers: number, token: string, labId: string, template: string, run: string) {
+  const procs = await Promise.all(Array.from({ length: workers }, startWorker));
+  const ids: string[] = [];
+  let next = 0;
+  const started = Date.now();
+  await Promise.all(Array.from({ length: UPLOAD_LANES }, async () => {
+    for (let n = next++; n < COUNT; n = next++) {
+      const csv = template.replace("# Record,0\n", `# Record,${run}-${workers}w-${n}\n`);
+      ids.push(await uploadOne(token, csv, `bench-${run}-${workers}w-${n}.csv`));
+    }
+  }));
+  const uploadS = (Date.now() - started) / 1000;
+  let times = await listBenchCaptureTimes({ kind: "lab", labId }, ids);
+  while (times.some((t) => t.state !== "analysed" && t.state !== "rejected" && t.state !== "failed")) {
+    await new Promise((r) => setTimeout(r, 500));
+    times = await listBenchCaptureTimes({ kind: "lab", labId }, ids);
+  }
+  await Promise.all(procs.map((p) => new Promise((r) => { p.once("exit", r); p.kill("SIGTERM"); })));
+  const done = times.filter((t) => t.state === "analysed" && t.uploadedAt && t.analysedAt);
+  const latency = done.map((t) => ((t.analysedAt as Date).getTime() - (t.uploadedAt as Date).getTime()) / 1000).sort((a, b) => a - b);
+  const first = Math.min(...done.map((t) => (t.uploadedAt as Date).getTime()));
+  const last = Math.max(...done.map((t) => (t.analysedAt as Date).getTime()));
+  return { workers, analysed: done.length, notAnalysed: times.length - done.length, uploadS, perMinute: (done.length / ((last - first) / 1000)) * 60, p50: quantile(latency, 0.5), p95: quantile(latency, 0.95) };
+}
+
+async function main() {
+  const live = await getAnalysisQueue().getWorkersCount();
+  if (live > 0) throw new Error(`${live} worker(s) already serve this queue: stop them, or the figures mean nothing`);
+  const { token, keyId, labId } = await createKey();
+  const template = makeThreePhaseCsv({ sampleRateHz: 10_000, cycles: ROWS / 200 });
+  const run = Date.now().toString(36);
+  console.log(`${COUNT} captures × ${ROWS.toLocaleString("en")} rows (${(template.length / 1024 ** 2).toFixed(1)} MiB each) through ${BASE}`);
+  const results = [];
+  for (const workers of (args.workers ?? "1").split(",").map(Number)) {
+    results.push(await runOnce(workers, token, labId, template, run));
+    console.log(`  ${workers} worker(s) done`);
+  }
+  await revokeStationKey({ kind: "lab", labId }, keyId);
+  printTable("Capture pipeline (upload complete → analysed, server timestamps)", [
+    ["workers", "analysed", "not analysed", "upload wall (s)", "captures/min", "p50 (s)", "p95 (s)"],
+    ...results.map((r) => [String(r.workers), String(r.analysed), String(r.notAnalysed), r.uploadS.toFixed(1), r.perMinute.toFixed(1), r.p50.toFixed(2), r.p95.toFixed(2)]),
+  ]);
+}
+
+try {
+  await main();
+} catch (err) {
+  console.error(`bench-pipeline: ${err instanceof Error ? err.message : String(err)}`);
+  process.exitCode = 1;
+} finally {
+  await closeAnalysisQueue();
+  await closeDb();
+}
