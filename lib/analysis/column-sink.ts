@@ -60,14 +60,12 @@ export class ColumnSink {
     this.timeIndex = timeColumn ?? -1;
   }
 
-  /** `row[c]` is NaN for an empty cell. */
-  accept(row: Float64Array, line: number): void {
+  /** `row[c]` is NaN for an empty cell; `filled` says how many cells hold a value. */
+  accept(row: Float64Array, line: number, filled: number): void {
     const n = this.count;
     if (n >= this.capacity) this.grow();
     const width = this.width;
-    let complete = !this.gapSeen;
-    for (let c = 0; c < width && complete; c++) complete = (row[c] as number) === (row[c] as number);
-    if (!complete) {
+    if (filled < width || this.gapSeen) {
       this.acceptWithGaps(row, line, n);
     } else {
       const stores = this.stores;

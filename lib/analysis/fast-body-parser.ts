@@ -225,7 +225,7 @@ export function createFastBodyParser(
       i++;
       if (filled === 0) continue;
       for (let rest = column + 1; rest < width; rest++) row[rest] = Number.NaN;
-      sink.accept(row, line);
+      sink.accept(row, line, filled);
     }
   }
 

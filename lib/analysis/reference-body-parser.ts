@@ -50,7 +50,7 @@ export function createReferenceBodyParser(
           row[column] = readNumericCell(cell, decimal);
           filled++;
         }
-        if (filled > 0) sink.accept(row, line);
+        if (filled > 0) sink.accept(row, line, filled);
       });
     },
   };
