@@ -17,19 +17,25 @@ export async function readCapture(source: AsyncIterable<Uint8Array | string>, op
 }
 
 /**
- * Reads a capture file from disk through one reused buffer (no garbage per chunk); the file's
- * size sizes the sample arrays once.
+ * Reads a capture file from disk through two reused buffers (no garbage per chunk): the next read
+ * is in flight while the parser works on the current chunk. The file's size sizes the sample
+ * arrays once.
  */
 export async function readCaptureFile(path: string, options: ParseOptions = {}): Promise<ParsedCapture> {
   const { size } = await stat(path);
   const parser = createCaptureParser({ expectedBytes: size, ...options });
   const handle = await open(path, "r");
   try {
-    const buffer = new Uint8Array(FILE_CHUNK_BYTES);
+    let filling = new Uint8Array(FILE_CHUNK_BYTES);
+    let spare = new Uint8Array(FILE_CHUNK_BYTES);
+    let pending = handle.read(filling, 0, FILE_CHUNK_BYTES, null);
     for (;;) {
-      const { bytesRead } = await handle.read(buffer, 0, buffer.length, null);
+      const { bytesRead } = await pending;
       if (bytesRead === 0) break;
-      parser.push(buffer.subarray(0, bytesRead));
+      const ready = filling;
+      [filling, spare] = [spare, ready];
+      pending = handle.read(filling, 0, FILE_CHUNK_BYTES, null);
+      parser.push(ready.subarray(0, bytesRead));
     }
   } finally {
     await handle.close();
