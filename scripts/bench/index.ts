@@ -7,6 +7,7 @@
  */
 import { execFileSync, spawnSync } from "node:child_process";
 import { mkdirSync, writeFileSync } from "node:fs";
+import { availableParallelism, loadavg } from "node:os";
 import path from "node:path";
 import { ensureBenchCapture } from "./generate";
 import { printTable } from "./table";
@@ -97,6 +98,8 @@ function main(): void {
   printTable("Ingestion + analysis, one child process per run", rows);
   printTable("Engine against pandas + numpy (same files, same run)", ratios);
   if (skipped) console.log(`\nNote: ${skipped}`);
+  // Timings on a shared machine move with its load: print it so a run can be judged.
+  console.log(`\n${availableParallelism()} cores; load average at the end ${loadavg().map((value) => value.toFixed(2)).join(" / ")} (1, 5, 15 min)`);
   writeFileSync(path.join(OUT, "results.json"), `${JSON.stringify(results, null, 2)}\n`);
 }
 
