@@ -72,6 +72,8 @@ for _ in $(seq 1 60); do
   curl -fsS -o /dev/null "$E2E_BASE_URL/sign-in" 2>/dev/null && break
   sleep 1
 done
+# The demo scenario's captures give the review, trends and report tests analysed units to work on.
+node_modules/.bin/tsx --import ./scripts/support/server-only-hook.mjs scripts/seed-captures.ts >.data/log/test-seed-captures.log 2>&1 || { tail -20 .data/log/test-seed-captures.log; exit 1; }
 PLAYWRIGHT_JSON_OUTPUT_NAME="$RESULTS/e2e.json" node_modules/.bin/playwright test --reporter=list,json || status=1
 
 node_modules/.bin/tsx scripts/test-summary.ts "$RESULTS"/*.json || status=1

@@ -1,0 +1,58 @@
+import { expect, test, type Page } from "@playwright/test";
+import { signIn, signOut } from "./support";
+
+// Relies on the demo scenario's captures, which the test command pushes through the pipeline.
+const FAILING_SERIAL = "KG45-260304";
+
+async function openWhenAnalysed(page: Page, serial: string) {
+  await expect(async () => {
+    await page.goto(`/units?q=${serial}`);
+    await expect(page.getByRole("row", { name: new RegExp(serial) }).getByText("Outside")).toBeVisible({ timeout: 1000 });
+  }).toPass({ timeout: 90_000 });
+  await page.getByRole("link", { name: serial }).click();
+  await expect(page.getByRole("heading", { name: `Unit ${serial}` })).toBeVisible();
+}
+
+test("a quality engineer finds an out-of-tolerance unit in the review queue and dispositions it with a comment", async ({ page }) => {
+  await signIn(page, "qa");
+  await openWhenAnalysed(page, FAILING_SERIAL);
+  await page.goto("/review");
+  await page.getByRole("link", { name: FAILING_SERIAL }).click();
+
+  await page.getByLabel("Disposition").selectOption("rework");
+  await page.getByRole("button", { name: "Record disposition" }).click();
+  await expect(page.getByText("Say why: a concession, rework or scrap needs a comment for the record.")).toBeVisible();
+
+  await page.getByLabel("Comment for the record").fill("5th and 7th harmonics high: return rotor for skew check.");
+  await page.getByRole("button", { name: "Record disposition" }).click();
+  await expect(page.getByText("Disposition recorded.")).toBeVisible();
+  await expect(page.getByText("Ines Vardy changed the disposition from open to rework")).toBeVisible();
+  await expect(page.getByText("5th and 7th harmonics high")).toBeVisible();
+
+  await page.goto("/review");
+  await expect(page.getByRole("link", { name: FAILING_SERIAL })).toHaveCount(0);
+});
+
+test("a client downloads its own unit's test record as PDF and CSV, but not another organisation's", async ({ page }) => {
+  await signIn(page, "kestrum");
+  await openWhenAnalysed(page, FAILING_SERIAL);
+  await expect(page.getByText("Record disposition")).toHaveCount(0);
+
+  const pdfDownload = page.waitForEvent("download");
+  await page.getByRole("link", { name: "Test record (PDF)" }).click();
+  const pdf = await pdfDownload;
+  expect(pdf.suggestedFilename()).toBe(`emfolio-${FAILING_SERIAL}.pdf`);
+
+  const unitPath = new URL(page.url()).pathname;
+  const csv = await page.request.get(`/api${unitPath}/report.csv`);
+  expect(csv.status()).toBe(200);
+  const text = await csv.text();
+  expect(text.split("\r\n")[0]).toMatch(/^serial,model,capture_id/);
+  expect(text).toContain(`${FAILING_SERIAL},KG-45T,`);
+  expect(text).toMatch(/,thd,.*,fail,/);
+  await signOut(page);
+
+  await signIn(page, "poldane");
+  expect((await page.request.get(`/api${unitPath}/report.pdf`)).status()).toBe(404);
+  expect((await page.request.get(`/api${unitPath}/report.csv`)).status()).toBe(404);
+});
