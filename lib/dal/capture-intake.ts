@@ -119,8 +119,11 @@ export async function completeCaptureUpload(actor: Actor, captureId: string, inp
       await refuse(scope, capture, 422, err.message, false);
     }
     const queued = await markCaptureQueued(scope, capture.id, stored.etag);
+    // Read before enqueueing, so the answer says what completion did (queued), not how far a fast worker got.
+    const view = await getCaptureStatusView(actor, capture.id);
     // The row says queued either way; if Redis is unreachable now, the worker's sweep enqueues it later.
     if (queued) await enqueueAnalysis({ captureId: capture.id, labId: capture.labId }).catch((e: unknown) => console.error(`enqueue ${capture.id}: ${String(e)}`));
+    if (view) return view;
   }
   const view = await getCaptureStatusView(actor, capture.id);
   if (!view) throw new HttpError(404, "No such capture");

@@ -1,0 +1,23 @@
+import { expect, test } from "@playwright/test";
+import { makeThreePhaseCsv } from "../fixtures/pipeline/make-capture";
+import { signIn } from "./support";
+
+test("a 40 MB capture goes from the browser to storage in parts (multipart) and is analysed", async ({ page }) => {
+  test.setTimeout(180_000);
+  const run = Date.now() % 1_000_000;
+  // 1e6 rows × 3 channels: above the 32 MiB multipart threshold, below Playwright's 50 MB buffer limit.
+  const csv = makeThreePhaseCsv({ sampleRateHz: 100_000, cycles: 500, variant: run });
+  expect(Buffer.byteLength(csv)).toBeGreaterThan(32 * 1024 ** 2);
+  await signIn(page, "operator");
+  await page.goto("/upload");
+  await page.getByLabel("Unit serial").fill("KG45-260303");
+  await page.getByLabel("Capture files").setInputFiles([{ name: `long-record-${run}.csv`, mimeType: "text/csv", buffer: Buffer.from(csv) }]);
+  const file = page.getByTestId("upload-file");
+  await expect(file.getByLabel("Role of V_BN (V)")).toHaveValue("vbn");
+  const parts: string[] = [];
+  page.on("request", (r) => { if (r.method() === "PUT" && /partNumber=/.test(r.url())) parts.push(r.url()); });
+  await page.getByRole("button", { name: "Upload 1 file" }).click();
+  await expect(file.getByRole("progressbar", { name: "Upload" })).toHaveAttribute("aria-valuenow", "100", { timeout: 90_000 });
+  await expect(file.getByTestId("capture-state")).toHaveAttribute("data-state", "analysed", { timeout: 90_000 });
+  expect(parts.length).toBeGreaterThanOrEqual(2);
+});
