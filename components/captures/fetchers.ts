@@ -36,4 +36,6 @@ export const postPresignParts = (id: string, partNumbers: number[]) =>
 
 export const postReanalyse = (id: string) => call<{ queued: number }>(`/api/captures/${id}/reanalyse`, { method: "POST", body: "{}" });
 
+export const postReanalyseRating = (ratingId: string) => call<{ queued: number }>("/api/captures/reanalyse", { method: "POST", body: JSON.stringify({ ratingId }) });
+
 export const isFinalState = (state: CaptureStatusView["state"]) => state === "analysed" || state === "rejected" || state === "failed";

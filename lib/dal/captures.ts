@@ -1,7 +1,7 @@
 import "server-only";
 import { getCurrentAnalysis, listAnalysisHistory } from "@/db/queries/analyses";
 import { getCaptureDetail, listCapturesForUnit, listRecentCaptures } from "@/db/queries/captures";
-import { getUnitBySerial } from "@/db/queries/units";
+import { getUnitBySerial, listRatingsForRegistration } from "@/db/queries/units";
 import type { AnalysisReport } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
 import { requireUser } from "@/lib/auth/guards";
@@ -104,4 +104,12 @@ export async function getUnitCaptureRows(unitId: string) {
   const actor = actorForUser(await requireUser());
   const rows = await listCapturesForUnit(actor.scope, unitId);
   return rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() }));
+}
+
+/** Ratings a lab manager may re-run analyses for (the re-analysis form). */
+export async function getReanalysisRatings() {
+  const user = await requireUser();
+  if (user.role !== "admin") return [];
+  const rows = await listRatingsForRegistration(actorForUser(user).scope);
+  return rows.map((r) => ({ id: r.id, label: `${r.modelCode} · ${r.title} (${r.owner})` }));
 }

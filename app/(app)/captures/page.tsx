@@ -1,19 +1,23 @@
 import Link from "next/link";
 import { CaptureStateBadge } from "@/components/captures/capture-state-badge";
+import { ReanalyseRatingForm } from "@/components/captures/reanalyse-rating-form";
 import { PageHeader } from "@/components/shell/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
 import { StatusTag } from "@/components/ui/status-tag";
 import { requireUser } from "@/lib/auth/guards";
 import { actorForUser } from "@/lib/dal/actor";
-import { getRecentCaptures } from "@/lib/dal/captures";
+import { getRecentCaptures, getReanalysisRatings } from "@/lib/dal/captures";
 
 export const metadata = { title: "Captures" };
 
 export default async function CapturesPage() {
-  const rows = await getRecentCaptures(actorForUser(await requireUser()), 100);
+  const user = await requireUser();
+  const rows = await getRecentCaptures(actorForUser(user), 100);
+  const ratings = user.role === "admin" ? await getReanalysisRatings() : [];
   return (
     <>
       <PageHeader title="Captures" lead="The latest captures of every unit you may see, newest first." />
+      {ratings.length > 0 ? <div className="mb-6"><ReanalyseRatingForm ratings={ratings} /></div> : null}
       {rows.length === 0 ? <EmptyState title="No captures yet" /> : (
         <div className="overflow-x-auto rounded-lg bg-white shadow-sm ring-1 ring-ink-200">
           <table className="min-w-full text-sm">

@@ -9,7 +9,7 @@ export async function GET(_request: Request, { params }: { params: Promise<{ id:
     const actor = await requireSessionActor();
     const plot = await getCapturePlotView(actor, requireUuid((await params).id, "capture"));
     if (!plot) throw new HttpError(404, "No analysis to plot for this capture yet");
-    return Response.json(plot, { headers: { "Cache-Control": "private, max-age=60" } });
+    return Response.json(plot, { headers: { "Cache-Control": "no-store" } });
   } catch (err) {
     return errorResponse(err);
   }
