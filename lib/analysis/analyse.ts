@@ -108,6 +108,7 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
     harmonicCycles: harmonicWindow.cycles,
     frequencyZeroCrossingHz: finiteOrNull(zeroCrossingHz),
     referenceChannel: reference.id,
+    deviationBasis: opts.deviationBasis,
     ...measured,
     power,
     warnings,

@@ -102,6 +102,8 @@ export const analysisReportSchema = z.object({
   /** Zero-crossing estimate, kept as a cross-check of `frequencyHz`. */
   frequencyZeroCrossingHz: maybe,
   referenceChannel: z.string(),
+  /** How `deviationFactorPercent` was reduced over the cycles examined (always set by the engine). */
+  deviationBasis: z.enum(["average-cycle", "worst-cycle"]).optional(),
   channels: z.array(channelReportSchema),
   threePhase: threePhaseSchema.nullable(),
   backEmf: backEmfSchema.nullable(),

@@ -8,6 +8,7 @@ const DEVIATION_PP = 0.2; // percentage points, from the issue
 
 function deviationOf(x: Float64Array, fs: number, f: number, basis: "average-cycle" | "worst-cycle" = "average-cycle"): number {
   const report = analyseCapture(captureOf([{ id: "V_AB", samples: x }], fs), { channelRoles: { V_AB: "vab" }, deviationBasis: basis });
+  expect(report.deviationBasis).toBe(basis);
   return report.channels[0]!.deviationFactorPercent!;
 }
 
