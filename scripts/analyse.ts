@@ -10,6 +10,7 @@ import {
   CHANNEL_ROLES,
   CaptureRejection,
   analyseCapture,
+  analysisOptionsSchema,
   ratingSchema,
   toleranceProfileSchema,
   tolerancePresets,
@@ -176,6 +177,8 @@ async function main(): Promise<number> {
       args.options.rating = rating.data;
     }
     if (args.tolerance) args.options.tolerance = await loadTolerance(args.tolerance);
+    const checked = analysisOptionsSchema.safeParse(args.options);
+    if (!checked.success) throw new UsageError(`Invalid options: ${checked.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}`);
     const capture = await readCaptureFile(args.file, args.sampleRateHz ? { sampleRateHz: args.sampleRateHz } : {});
     const report = analyseCapture(capture, args.options);
     if (args.json) process.stdout.write(`${JSON.stringify(report)}\n`);

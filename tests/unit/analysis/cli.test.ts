@@ -41,6 +41,9 @@ describe("scripts/analyse.ts", () => {
 
   it("analyse exits 2 for a bad argument or a missing file (contract)", () => {
     expect(analyse(path.join(FIXTURE_DIR, "layouts", "comma-point.csv"), "--channel", "V_AN (V)=vx").status).toBe(2);
+    const poles = analyse(path.join(FIXTURE_DIR, "layouts", "comma-point.csv"), "--poles", "3.5");
+    expect(poles.status).toBe(2);
+    expect(poles.stderr).toContain("poles");
     const missing = analyse(path.join(FIXTURE_DIR, "nope.csv"));
     expect(missing.status).toBe(2);
     expect(missing.stderr).toContain("no such file");
