@@ -2,7 +2,8 @@
  * Command-line analysis for bench PCs and scripts.
  *   npm run analyse -- <file.csv> [--channel "<header>=<role>"]... [--speed-rpm N] [--poles N]
  *     [--rating rating.json] [--tolerance <preset id | profile.json>] [--harmonics N]
- *     [--sample-rate HZ] [--iec-groups] [--worst-cycle] [--json]
+ *     [--sample-rate HZ] [--probe "<header>=<ratio>"]... [--offset "<header>=<SI value>"]...
+ *     [--iec-groups] [--worst-cycle] [--json]
  * Exit 0 on success, 2 when the input (file or arguments) is rejected, 1 on an internal error.
  */
 import { readFile } from "node:fs/promises";
@@ -16,6 +17,7 @@ import {
   tolerancePresets,
   type AnalysisOptions,
   type AnalysisReport,
+  type ChannelCalibration,
   type ChannelRole,
   type ToleranceProfile,
 } from "@/lib/analysis";
@@ -28,6 +30,7 @@ interface CliArguments {
   file: string;
   json: boolean;
   sampleRateHz?: number;
+  calibration: Record<string, ChannelCalibration>;
   options: AnalysisOptions;
   ratingPath?: string;
   tolerance?: string;
@@ -41,7 +44,13 @@ function positiveNumber(flag: string, text: string | undefined): number {
 
 function parseArguments(argv: string[]): CliArguments {
   const roles: Record<string, ChannelRole> = {};
-  const parsed: CliArguments = { file: "", json: false, options: {} };
+  const parsed: CliArguments = { file: "", json: false, options: {}, calibration: {} };
+  const headerValue = (flag: string, spec: string | undefined): [string, number] => {
+    const split = (spec ?? "").lastIndexOf("=");
+    const value = Number((spec ?? "").slice(split + 1));
+    if (split <= 0 || !Number.isFinite(value)) throw new UsageError(`${flag} needs "<column header>=<number>", got "${spec ?? ""}"`);
+    return [(spec ?? "").slice(0, split), value];
+  };
   for (let i = 0; i < argv.length; i++) {
     const arg = argv[i] as string;
     const next = (): string | undefined => argv[++i];
@@ -71,6 +80,16 @@ function parseArguments(argv: string[]): CliArguments {
       case "--sample-rate":
         parsed.sampleRateHz = positiveNumber(arg, next());
         break;
+      case "--probe": {
+        const [header, ratio] = headerValue(arg, next());
+        parsed.calibration[header] = { ...parsed.calibration[header], scale: ratio };
+        break;
+      }
+      case "--offset": {
+        const [header, offset] = headerValue(arg, next());
+        parsed.calibration[header] = { ...parsed.calibration[header], offset };
+        break;
+      }
       case "--rating":
         parsed.ratingPath = next();
         break;
@@ -179,7 +198,7 @@ async function main(): Promise<number> {
     if (args.tolerance) args.options.tolerance = await loadTolerance(args.tolerance);
     const checked = analysisOptionsSchema.safeParse(args.options);
     if (!checked.success) throw new UsageError(`Invalid options: ${checked.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}`);
-    const capture = await readCaptureFile(args.file, args.sampleRateHz ? { sampleRateHz: args.sampleRateHz } : {});
+    const capture = await readCaptureFile(args.file, { calibration: args.calibration, ...(args.sampleRateHz ? { sampleRateHz: args.sampleRateHz } : {}) });
     const report = analyseCapture(capture, args.options);
     if (args.json) process.stdout.write(`${JSON.stringify(report)}\n`);
     else printSummary(args.file, report);

@@ -19,6 +19,10 @@ describe("scripts/analyse.ts", () => {
     const report = analysisReportSchema.parse(JSON.parse(result.stdout));
     expect(report.backEmf?.poles).toBe(4);
     expect(report.threePhase?.basis).toBe("line-line");
+    const probed = analyse(path.join(FIXTURE_DIR, "layouts", "bench-layout.csv"), "--json", "--probe", "V_AB (V)=10");
+    expect(probed.status).toBe(0);
+    const scaled = analysisReportSchema.parse(JSON.parse(probed.stdout));
+    expect(scaled.channels[0]!.rms / report.channels[0]!.rms).toBeCloseTo(10, 9);
   }, 30_000);
 
   it("analyse prints a summary table and applies --channel roles and a rating (contract)", () => {
