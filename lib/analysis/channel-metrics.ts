@@ -1,5 +1,5 @@
 import { computeDeviationFactor, type DeviationBasis } from "./deviation";
-import { scanChannel } from "./channel-scan";
+import { countFlatTops, scanWindow } from "./channel-scan";
 import { computeHarmonics } from "./harmonics";
 import { computeHarmonicGroups } from "./iec-grouping";
 import { magnitude, type Complex } from "./phasors";
@@ -44,8 +44,7 @@ export function analyseChannel(channel: CaptureChannel, role: ChannelRole, conte
   const x = channel.samples;
   const warnings: QualityWarning[] = [];
   const samplesPerCycle = sampleRateHz / frequencyHz;
-  const scan = scanChannel(x, window, flatTopRunSamples(samplesPerCycle));
-  const { mean: dc, meanSquare, peak } = scan;
+  const { mean: dc, meanSquare, peak } = scanWindow(x, window);
   const rms = Math.sqrt(Math.max(0, meanSquare));
   const acRms = Math.sqrt(Math.max(0, meanSquare - dc * dc));
   const components = computeHarmonics(x, sampleRateHz, frequencyHz, harmonicWindow, context.maxOrder);
@@ -69,7 +68,8 @@ export function analyseChannel(channel: CaptureChannel, role: ChannelRole, conte
   const deviation = voltage
     ? computeDeviationFactor(x, sampleRateHz, frequencyHz, harmonicWindow, dc, acRms, Math.atan2(fundamental.im, fundamental.re), context.deviationBasis)
     : null;
-  const clipping = clippingWarning(channel.id, scan.flatTopRuns, scan.longestFlatTop);
+  const flatTops = countFlatTops(x, harmonicWindow.start, harmonicWindow.start + Math.floor(harmonicWindow.spanSamples), flatTopRunSamples(samplesPerCycle));
+  const clipping = clippingWarning(channel.id, flatTops.runs, flatTops.longestRun);
   if (clipping) warnings.push(clipping);
   const offset = dcOffsetWarning(channel.id, dc, magnitude(fundamental));
   if (offset) warnings.push(offset);

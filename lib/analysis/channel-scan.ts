@@ -1,79 +1,67 @@
 import { spanWeights } from "./goertzel";
 import type { CycleWindow } from "./cycles";
 
-export interface ChannelScan {
+export interface WindowScan {
   /** Trapezoid-weighted over the whole-cycle window. */
   mean: number;
   meanSquare: number;
   /** Largest |x| inside the window. */
   peak: number;
-  /** Runs of identical samples at the record's maximum or minimum, at least `flatRunSamples` long. */
-  flatTopRuns: number;
-  longestFlatTop: number;
 }
 
-/** Flat runs remembered per channel; a clipped record has one per half cycle, far below this. */
-const MAX_RECORDED_RUNS = 1 << 16;
-
 /**
- * One pass over a channel for everything that needs every sample: window moments and peak, the
- * record's extremes, and runs of repeated values (kept with their level, so runs at the extremes
- * can be counted once the extremes are known). Fewer passes over 10^7 samples is most of the speed.
+ * One pass over the window for mean, mean square and peak: the only loop that must touch every
+ * one of up to 10^7 samples per channel, so it does nothing else.
  */
-export function scanChannel(samples: Float64Array, window: CycleWindow, flatRunSamples: number): ChannelScan {
+export function scanWindow(samples: Float64Array, window: CycleWindow): WindowScan {
   const { whole, edges } = spanWeights(samples.length, window.start, window.spanSamples);
-  const windowStart = window.start;
-  const windowEnd = windowStart + whole;
-  const count = samples.length;
+  const end = window.start + whole;
   let sum = 0;
   let sumSquares = 0;
   let peak = 0;
-  let max = Number.NEGATIVE_INFINITY;
-  let min = Number.POSITIVE_INFINITY;
-  // Plain locals only (no closure captures them): captured variables live on the heap and
-  // made this loop ten times slower.
-  let previous = Number.NaN;
-  let run = 0;
-  const runLevels: number[] = [];
-  const runLengths: number[] = [];
-  for (let n = 0; n < count; n++) {
+  for (let n = window.start; n < end; n++) {
     const v = samples[n] as number;
-    if (n >= windowStart && n < windowEnd) {
-      sum += v;
-      sumSquares += v * v;
-      const magnitude = v < 0 ? -v : v;
-      if (magnitude > peak) peak = magnitude;
-    }
-    if (v > max) max = v;
-    if (v < min) min = v;
-    if (v === previous) {
-      run++;
-    } else {
-      if (run >= flatRunSamples && runLevels.length < MAX_RECORDED_RUNS) {
-        runLevels.push(previous);
-        runLengths.push(run);
-      }
-      previous = v;
-      run = 1;
-    }
-  }
-  if (run >= flatRunSamples && runLevels.length < MAX_RECORDED_RUNS) {
-    runLevels.push(previous);
-    runLengths.push(run);
+    sum += v;
+    sumSquares += v * v;
+    const magnitude = v < 0 ? -v : v;
+    if (magnitude > peak) peak = magnitude;
   }
   for (const { offset, weight } of edges) {
     const v = samples[window.start + offset] as number;
     sum += weight * v;
     sumSquares += weight * v * v;
-    const magnitude = Math.abs(v);
-    if (weight > 0 && magnitude > peak) peak = magnitude;
+    if (weight > 0 && Math.abs(v) > peak) peak = Math.abs(v);
   }
-  let flatTopRuns = 0;
-  let longestFlatTop = 0;
-  runLevels.forEach((level, index) => {
-    if (level !== max && level !== min) return;
-    flatTopRuns++;
-    longestFlatTop = Math.max(longestFlatTop, runLengths[index] as number);
-  });
-  return { mean: sum / window.spanSamples, meanSquare: sumSquares / window.spanSamples, peak, flatTopRuns, longestFlatTop };
+  return { mean: sum / window.spanSamples, meanSquare: sumSquares / window.spanSamples, peak };
+}
+
+/**
+ * Runs of identical samples at the maximum or minimum of samples[from, to), at least
+ * `flatRunSamples` long: the flat tops of a clipped input. Steady clipping shows on every cycle,
+ * so the harmonic window (≤ 2^18 samples) is enough to see it.
+ */
+export function countFlatTops(samples: Float64Array, from: number, to: number, flatRunSamples: number): { runs: number; longestRun: number } {
+  let max = Number.NEGATIVE_INFINITY;
+  let min = Number.POSITIVE_INFINITY;
+  for (let n = from; n < to; n++) {
+    const v = samples[n] as number;
+    if (v > max) max = v;
+    if (v < min) min = v;
+  }
+  let runs = 0;
+  let longestRun = 0;
+  let run = 0;
+  let previous = Number.NaN;
+  for (let n = from; n < to; n++) {
+    const v = samples[n] as number;
+    if (v === max || v === min) {
+      run = v === previous ? run + 1 : 1;
+      if (run === flatRunSamples) runs++;
+      if (run > longestRun) longestRun = run;
+    } else {
+      run = 0;
+    }
+    previous = v;
+  }
+  return { runs, longestRun: runs > 0 ? longestRun : 0 };
 }

@@ -1,8 +1,8 @@
 import type { QualityWarning } from "./types";
 
 /**
- * Flat tops at the record's extreme values: runs of identical samples at the maximum or minimum at
- * least 2 % of a cycle long (7.2°), seen at least twice. Quantised sines do not reach that; a clipped
+ * Flat tops at the extreme values: runs of identical samples at the maximum or minimum at least
+ * 2 % of a cycle long (7.2°), seen at least twice. Quantised sines do not reach that; a clipped
  * probe or a saturated input does.
  */
 export function flatTopRunSamples(samplesPerCycle: number): number {
