@@ -22,6 +22,8 @@ const FEW_CYCLES = 5;
  */
 const HARMONIC_WINDOW_SAMPLES = 1 << 18;
 const LEVEL_SAMPLES = 1 << 16;
+/** The zero-crossing cross-check reads the leading 2^20 samples: hundreds of cycles at bench rates. */
+const CROSSING_SAMPLES = 1 << 20;
 const REFERENCE_ORDER: ChannelRole[] = ["van", "vab", "v", "vbn", "vbc", "vcn", "vca", "ia", "ib", "ic"];
 
 /** Frequency of the reference channel: coarse FFT (or zero crossings), then phase-drift refinement. */
@@ -39,7 +41,7 @@ function measureFrequency(samples: Float64Array, sampleRateHz: number, id: strin
   }
   const mean = sum / lead;
   const amplitude = Math.max(max - mean, mean - min);
-  const crossings = estimateByZeroCrossings(samples, sampleRateHz, mean, amplitude);
+  const crossings = estimateByZeroCrossings(samples.subarray(0, CROSSING_SAMPLES), sampleRateHz, mean, amplitude);
   const spectral = estimateBySpectrum(samples, sampleRateHz, mean);
   const spectralAgrees = spectral !== null && (crossings === null || Math.abs(spectral - crossings.frequencyHz) <= 0.05 * crossings.frequencyHz);
   const coarse = spectralAgrees ? spectral : (crossings?.frequencyHz ?? null);
