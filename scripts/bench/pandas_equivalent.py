@@ -15,6 +15,7 @@ import pandas as pd
 HARMONICS = 50
 HARMONIC_WINDOW_SAMPLES = 1 << 18
 DEVIATION_CYCLES = 50
+CROSSING_SAMPLES = 1 << 20
 
 
 def coarse_frequency(x, fs):
@@ -84,7 +85,7 @@ def main(path):
 
     fs = 1 / mean_step
     reference = channels[0]
-    f_zc = zero_crossing_frequency(reference, fs)
+    f_zc = zero_crossing_frequency(reference[:CROSSING_SAMPLES], fs)
     f0 = refine_frequency(reference, fs, coarse_frequency(reference, fs))
     spc = fs / f0
     cycles = int(np.floor(len(t) / spc + 1e-6))
@@ -97,7 +98,8 @@ def main(path):
         dc = float(w.mean())
         rms = float(np.sqrt(np.mean(w * w)))
         peak = float(np.abs(w).max())
-        clipped = int(np.count_nonzero(x == x.max()) + np.count_nonzero(x == x.min()))
+        head = x[:n_h]
+        clipped = int(np.count_nonzero(head == head.max()) + np.count_nonzero(head == head.min()))
         spectrum = np.fft.rfft(x[:n_h])
         bins = h_cycles * np.arange(1, HARMONICS + 1)
         bins = bins[bins < len(spectrum)]
