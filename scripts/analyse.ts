@@ -5,6 +5,8 @@
  *     [--sample-rate HZ] [--probe "<header>=<ratio>"]... [--offset "<header>=<SI value>"]...
  *     [--iec-groups] [--worst-cycle] [--json]
  * Exit 0 on success, 2 when the input (file or arguments) is rejected, 1 on an internal error.
+ * With --json the script writes the report alone; `npm run -s analyse -- …` keeps npm's own banner
+ * off stdout too.
  */
 import { readFile } from "node:fs/promises";
 import {

@@ -30,6 +30,8 @@ export interface Measurement {
   frequencyHz: number;
   thdFPercent: number | null;
   rms: number | null;
+  deviationFactorPercent: number | null;
+  vufPercent: number | null;
 }
 
 function runJson(command: string, args: string[]): Measurement {
@@ -86,6 +88,8 @@ function main(): void {
   const repeats = parseRepeats(process.argv.slice(2));
   const rows: string[][] = [["file", "ingest s", "analyse s", "total s", "MB/s", "peak RSS MB"]];
   const ratios: string[][] = [["rows", "MB", "engine s", "pandas s", "ratio", "engine RSS", "pandas RSS", "target (1e7)"]];
+  const agreement: string[][] = [["rows", "Δf ppm", "ΔTHD-F pp", "ΔRMS %", "Δdeviation pp", "ΔVUF pp"]];
+  const gap = (a: number | null, b: number | null, scale = 1, digits = 5): string => (a === null || b === null ? "—" : (scale * (a - b)).toFixed(digits));
   const results: Record<string, unknown>[] = [];
   for (const count of parseSizes(process.argv.slice(2))) {
     const file = path.join(OUT, `capture-${count.toExponential().replace("+", "")}.csv`);
@@ -107,10 +111,21 @@ function main(): void {
       pandas ? pandas.peakRssMb.toFixed(0) : "—",
       target,
     ]);
+    if (pandas) {
+      agreement.push([
+        count.toExponential(0),
+        gap(engine.frequencyHz, pandas.frequencyHz, 1e6 / pandas.frequencyHz, 4),
+        gap(engine.thdFPercent, pandas.thdFPercent),
+        gap(engine.rms, pandas.rms, 100 / (pandas.rms ?? 1)),
+        gap(engine.deviationFactorPercent, pandas.deviationFactorPercent),
+        gap(engine.vufPercent, pandas.vufPercent),
+      ]);
+    }
     results.push({ rows: count, bytes: size, engine, pandas });
   }
   printTable(`Ingestion + analysis, one child process per run, median of ${repeats}`, rows);
   printTable("Engine against pandas + numpy (same files, same run)", ratios);
+  if (!skipped) printTable("Agreement, engine minus pandas + numpy (first channel)", agreement);
   if (skipped) console.log(`\nNote: ${skipped}`);
   // Timings on a shared machine move with its load: print it so a run can be judged.
   console.log(`\n${availableParallelism()} cores; load average at the end ${loadavg().map((value) => value.toFixed(2)).join(" / ")} (1, 5, 15 min)`);

@@ -21,5 +21,7 @@ process.stdout.write(
     frequencyHz: report.frequencyHz,
     thdFPercent: report.channels[0]?.thdFPercent ?? null,
     rms: report.channels[0]?.rms ?? null,
+    deviationFactorPercent: report.channels[0]?.deviationFactorPercent ?? null,
+    vufPercent: report.threePhase?.unbalance.vufPercent ?? null,
   })}\n`,
 );
