@@ -1,5 +1,7 @@
 # Shared by scripts/up.sh and scripts/test.sh. Sourced, not run.
 export NEXT_TELEMETRY_DISABLED=1
+# The AWS SDK warns on every start that releases after January 2027 need Node 22; this project pins one that runs on 20.
+export AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED=true
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 cd "$ROOT"
 

@@ -1,5 +1,5 @@
 // Pushes the demo scenario's captures through the real intake path (storage, queue, worker), as a bench
-// operator would. Runs once: a lab that already has captures is left as it is. Needs the resolve
+// operator would. Idempotent: a capture whose bytes are already stored for its unit is skipped. Needs the resolve
 // hook in scripts/support (server-only modules): tsx --import ./scripts/support/server-only-hook.mjs scripts/seed-captures.ts
 import { createHash } from "node:crypto";
 import { closeDb } from "@/db/client";
@@ -7,7 +7,6 @@ import { findActiveUserByEmail } from "@/db/queries/users";
 import { demoUsers } from "@/db/seed-data";
 import { actorForUser } from "@/lib/dal/actor";
 import { completeCaptureUpload, registerCapture } from "@/lib/dal/capture-intake";
-import { getRecentCaptures } from "@/lib/dal/captures";
 import { closeAnalysisQueue } from "@/lib/server/queue";
 import { demoCaptures } from "./demo/scenario";
 import { renderDemoCsv } from "./demo/waveforms";
@@ -19,18 +18,19 @@ async function main() {
   const { passwordHash: _hash, ...user } = row;
   void _hash;
   const actor = actorForUser(user);
-  if ((await getRecentCaptures(actor, 1)).length > 0) {
-    console.log("demo captures already present: nothing changed");
-    return;
-  }
   for (const [i, c] of demoCaptures.entries()) {
     const body = renderDemoCsv({ ...c.wave, seed: 1000 + i });
     const bytes = Buffer.from(body, "utf8");
-    const { capture, upload } = await registerCapture(actor, {
+    const { capture, upload, duplicate } = await registerCapture(actor, {
       unitSerial: c.serial, testKind: c.testKind, speedRpm: c.speedRpm, channelRoles: c.roles as never, probeScales: {},
       notes: c.notes, fileName: `${c.serial}-${c.testKind}.csv`, sizeBytes: bytes.length,
       sha256: createHash("sha256").update(bytes).digest("hex"),
     });
+    // The same bytes for the same unit are the same capture: a second run adds nothing.
+    if (duplicate && !upload) {
+      console.log(`already there: ${c.serial}`);
+      continue;
+    }
     if (upload?.kind !== "single") throw new Error(`unexpected upload plan for ${c.serial}`);
     const put = await fetch(upload.url, { method: "PUT", headers: upload.headers, body: bytes });
     if (!put.ok) throw new Error(`upload of ${c.serial} answered ${put.status}`);

@@ -4,6 +4,9 @@ import { signIn, signOut } from "./support";
 // Relies on the demo scenario's captures, which the test command pushes through the pipeline.
 const FAILING_SERIAL = "KG45-260304";
 
+// The worker may still be analysing the scenario when these start.
+test.setTimeout(180_000);
+
 async function openWhenAnalysed(page: Page, serial: string) {
   await expect(async () => {
     await page.goto(`/units?q=${serial}`);

@@ -19,7 +19,10 @@ export async function signIn(page: Page, who: keyof typeof ACCOUNTS, password = 
 }
 
 export async function signOut(page: Page) {
-  await page.getByRole("button", { name: "Sign out" }).click();
-  await expect(page).toHaveURL(/\/sign-in/);
+  // The button works once React has hydrated the shell; a click before that does nothing, so retry.
+  await expect(async () => {
+    await page.getByRole("button", { name: "Sign out" }).click({ timeout: 2000 });
+    await expect(page).toHaveURL(/\/sign-in/, { timeout: 3000 });
+  }).toPass({ timeout: 30_000 });
   await expect(page.getByRole("button", { name: "Sign in" })).toBeVisible();
 }
