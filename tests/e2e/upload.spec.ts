@@ -1,5 +1,5 @@
 import { expect, test } from "@playwright/test";
-import { makeThreePhaseCsv } from "../fixtures/pipeline/make-capture";
+import { makeBrokenCsv, makeThreePhaseCsv } from "../fixtures/pipeline/make-capture";
 import { signIn } from "./support";
 
 // Needs the test server and the worker that scripts/test.sh starts beside it.
@@ -37,4 +37,24 @@ test("an operator uploads two CSV files, watches both go queued → analysed, th
   await expect(page.getByTestId("waveform-plot").locator("canvas")).toBeVisible();
   await expect(page.getByTestId("spectrum-plot").locator("canvas")).toBeVisible();
   await expect(page.getByRole("table", { name: "Channel metrics" })).toContainText("V_BN (V)");
+});
+
+test("a CSV whose body turns non-numeric is uploaded, then shown rejected with the engine's located message", async ({ page }) => {
+  const run = Date.now() % 1_000_000;
+  await signIn(page, "operator");
+  await page.goto("/upload");
+  await page.getByLabel("Unit serial").fill("KG45-260302");
+  await page.getByLabel("Capture files").setInputFiles([{ name: `broken-${run}.csv`, mimeType: "text/csv", buffer: Buffer.from(makeBrokenCsv(run)) }]);
+  await page.getByRole("button", { name: "Upload 1 file" }).click();
+  const file = page.getByTestId("upload-file");
+  await expect(file.getByTestId("capture-state")).toHaveAttribute("data-state", "rejected", { timeout: 60_000 });
+  await expect(file).toContainText(/Not a number: "oops" \(line 501, column "V_BN \(V\)"\)/);
+});
+
+test("a file that is not a CSV export is refused in the browser before anything is uploaded", async ({ page }) => {
+  await signIn(page, "operator");
+  await page.goto("/upload");
+  await page.getByLabel("Capture files").setInputFiles([{ name: "scope-screenshot.png", mimeType: "image/png", buffer: Buffer.from("\x89PNG\r\n\x1a\n") }]);
+  await expect(page.getByTestId("upload-file")).toContainText("Only CSV exports are accepted");
+  await expect(page.getByRole("button", { name: /Upload/ })).toBeDisabled();
 });
