@@ -1,6 +1,6 @@
 import { expect, test } from "@playwright/test";
 import { makeBrokenCsv, makeThreePhaseCsv } from "../fixtures/pipeline/make-capture";
-import { signIn } from "./support";
+import { signIn, signOut } from "./support";
 
 // Needs the test server and the worker that scripts/test.sh starts beside it.
 
@@ -37,6 +37,16 @@ test("an operator uploads two CSV files, watches both go queued → analysed, th
   await expect(page.getByTestId("waveform-plot").locator("canvas")).toBeVisible();
   await expect(page.getByTestId("spectrum-plot").locator("canvas")).toBeVisible();
   await expect(page.getByRole("table", { name: "Channel metrics" })).toContainText("V_BN (V)");
+
+  // The unit belongs to Kestrum: Poldane's client account must not see the capture, page or data.
+  const captureUrl = new URL(page.url()).pathname;
+  await signOut(page);
+  await signIn(page, "poldane");
+  const res = await page.goto(captureUrl);
+  expect(res?.status()).toBe(404);
+  await expect(page.getByRole("heading", { name: "Nothing here" })).toBeVisible();
+  expect((await page.request.get(`/api${captureUrl}`)).status()).toBe(404);
+  expect((await page.request.get(`/api${captureUrl}/raw`, { maxRedirects: 0 })).status()).toBe(404);
 });
 
 test("a CSV whose body turns non-numeric is uploaded, then shown rejected with the engine's located message", async ({ page }) => {
