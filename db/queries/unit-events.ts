@@ -5,15 +5,18 @@ import { unitScopeWhere, type Scope } from "./scope";
 
 type Disposition = Unit["disposition"];
 
-/** Changes a unit's disposition and writes the audit row in one transaction; false when out of scope. */
-export async function recordDisposition(scope: Scope, unitId: string, actorId: string, to: Disposition, comment: string): Promise<boolean> {
+/** Changes a unit's disposition and writes the audit row in one transaction. */
+export async function recordDisposition(
+  scope: Scope, unitId: string, actorId: string, to: Disposition, comment: string,
+): Promise<"recorded" | "unchanged" | "out-of-scope"> {
   return getDb().transaction(async (tx) => {
     const [unit] = await tx.select({ id: units.id, disposition: units.disposition }).from(units)
       .where(and(unitScopeWhere(scope), eq(units.id, unitId))).for("update");
-    if (!unit) return false;
+    if (!unit) return "out-of-scope";
+    if (unit.disposition === to) return "unchanged";
     await tx.update(units).set({ disposition: to }).where(eq(units.id, unit.id));
     await tx.insert(unitEvents).values({ unitId: unit.id, actorId, kind: "disposition", fromDisposition: unit.disposition, toDisposition: to, comment });
-    return true;
+    return "recorded";
   });
 }
 

@@ -16,29 +16,34 @@ const inviteSchema = z.object({
   organisationId: z.uuid("Pick an organisation."),
 });
 
-export type InviteState = { ok: boolean; message: string; fieldErrors?: Partial<Record<keyof z.infer<typeof inviteSchema>, string>> };
+type InviteFields = keyof z.infer<typeof inviteSchema>;
+
+/** `values` echoes what was typed, so a refused form keeps it after React resets the fields. */
+export type InviteState = { ok: boolean; message: string; fieldErrors?: Partial<Record<InviteFields, string>>; values?: Partial<Record<InviteFields, string>> };
 
 export async function inviteUser(_prev: InviteState, form: FormData): Promise<InviteState> {
   const admin = await requireRole("admin");
-  const parsed = inviteSchema.safeParse(Object.fromEntries(form));
+  const raw = Object.fromEntries(form);
+  const values = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, typeof v === "string" ? v.slice(0, 254) : ""]));
+  const parsed = inviteSchema.safeParse(raw);
   if (!parsed.success) {
     const fieldErrors: InviteState["fieldErrors"] = {};
     for (const issue of parsed.error.issues) fieldErrors[issue.path[0] as keyof typeof fieldErrors] ??= issue.message;
-    return { ok: false, message: "Check the highlighted fields.", fieldErrors };
+    return { ok: false, message: "Check the highlighted fields.", fieldErrors, values };
   }
   const org = (await listOrganisations()).find((o) => o.id === parsed.data.organisationId);
-  if (!org) return { ok: false, message: "That organisation does not exist." };
+  if (!org) return { ok: false, message: "That organisation does not exist.", values };
   const clientRole = parsed.data.role === "manufacturer";
   if (clientRole !== (org.kind === "manufacturer")) {
-    return { ok: false, message: clientRole ? "A client account belongs to a client organisation." : "Lab roles belong to the lab." };
+    return { ok: false, message: clientRole ? "A client account belongs to a client organisation." : "Lab roles belong to the lab.", values };
   }
-  if (org.kind === "lab" && org.id !== admin.organisationId) return { ok: false, message: "You can only invite people to your own lab." };
+  if (org.kind === "lab" && org.id !== admin.organisationId) return { ok: false, message: "You can only invite people to your own lab.", values };
   let created;
   try {
     // An unusable random password until the invitee sets one through the mailed link.
     created = await insertUser({ ...parsed.data, passwordHash: await hashPassword(randomBytes(24).toString("hex")) });
   } catch {
-    return { ok: false, message: "An account with that email already exists.", fieldErrors: { email: "Already in use." } };
+    return { ok: false, message: "An account with that email already exists.", fieldErrors: { email: "Already in use." }, values };
   }
   if (!created) return { ok: false, message: "The account was not created." };
   await sendPasswordLink({ id: created.id, email: parsed.data.email, name: parsed.data.name }, "invite");

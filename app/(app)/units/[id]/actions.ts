@@ -12,18 +12,21 @@ const dispositionSchema = z.object({
   comment: z.string().trim().max(2000),
 });
 
-export type DispositionState = { ok: boolean; message: string };
+export type DispositionState = { ok: boolean; message: string; values?: { to: string; comment: string } };
 
 export async function setDisposition(_prev: DispositionState, form: FormData): Promise<DispositionState> {
   const user = await requireRole("qa", "admin");
   const parsed = dispositionSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return { ok: false, message: "Pick a disposition." };
   const { unitId, to, comment } = parsed.data;
+  // Echoed back so the form shows what was typed after React resets it.
+  const values = { to, comment };
   if (to !== "accepted" && to !== "open" && comment.length < 5) {
-    return { ok: false, message: "Say why: a concession, rework or scrap needs a comment for the record." };
+    return { ok: false, message: "Say why: a concession, rework or scrap needs a comment for the record.", values };
   }
-  const done = await recordDisposition(scopeFor(user), unitId, user.id, to, comment);
-  if (!done) return { ok: false, message: "That unit is not one your lab tests." };
+  const outcome = await recordDisposition(scopeFor(user), unitId, user.id, to, comment);
+  if (outcome === "out-of-scope") return { ok: false, message: "That unit is not one your lab tests.", values };
+  if (outcome === "unchanged") return { ok: false, message: `The unit is already ${to}: pick another disposition.`, values };
   revalidatePath(`/units/${unitId}`);
   revalidatePath("/review");
   return { ok: true, message: "Disposition recorded." };
