@@ -3,6 +3,7 @@
  *   npm run analyse -- <file.csv> [--channel "<header>=<role>"]... [--speed-rpm N] [--poles N]
  *     [--rating rating.json] [--tolerance <preset id | profile.json>] [--harmonics N]
  *     [--sample-rate HZ] [--probe "<header>=<ratio>"]... [--offset "<header>=<SI value>"]...
+ *     [--magnet-temp C [--reference-temp C] [--magnet ndfeb|smco|ferrite]]
  *     [--iec-groups] [--worst-cycle] [--json]
  * Exit 0 on success, 2 when the input (file or arguments) is rejected, 1 on an internal error.
  * With --json the script writes the report alone; `npm run -s analyse -- …` keeps npm's own banner
@@ -33,6 +34,7 @@ interface CliArguments {
   json: boolean;
   sampleRateHz?: number;
   calibration: Record<string, ChannelCalibration>;
+  magnet: { measuredC?: number; referenceC?: number; material?: string };
   options: AnalysisOptions;
   ratingPath?: string;
   tolerance?: string;
@@ -46,7 +48,7 @@ function positiveNumber(flag: string, text: string | undefined): number {
 
 function parseArguments(argv: string[]): CliArguments {
   const roles: Record<string, ChannelRole> = {};
-  const parsed: CliArguments = { file: "", json: false, options: {}, calibration: {} };
+  const parsed: CliArguments = { file: "", json: false, options: {}, calibration: {}, magnet: {} };
   const headerValue = (flag: string, spec: string | undefined): [string, number] => {
     const split = (spec ?? "").lastIndexOf("=");
     const value = Number((spec ?? "").slice(split + 1));
@@ -98,6 +100,15 @@ function parseArguments(argv: string[]): CliArguments {
       case "--tolerance":
         parsed.tolerance = next();
         break;
+      case "--magnet-temp":
+        parsed.magnet.measuredC = Number(next());
+        break;
+      case "--reference-temp":
+        parsed.magnet.referenceC = Number(next());
+        break;
+      case "--magnet":
+        parsed.magnet.material = next();
+        break;
       case "--iec-groups":
         parsed.options.groupingIec = true;
         break;
@@ -112,6 +123,10 @@ function parseArguments(argv: string[]): CliArguments {
   }
   if (!parsed.file) throw new UsageError("Give a capture file: npm run analyse -- <file.csv> [options]");
   if (Object.keys(roles).length > 0) parsed.options.channelRoles = roles;
+  if (parsed.magnet.measuredC !== undefined) {
+    // Checked with the rest of the options by analysisOptionsSchema.
+    parsed.options.magnetTemperature = parsed.magnet as NonNullable<AnalysisOptions["magnetTemperature"]>;
+  }
   return parsed;
 }
 
@@ -160,6 +175,7 @@ function printSummary(file: string, report: AnalysisReport): void {
     out.push("");
     out.push(`Back-EMF at ${be.speedRpm} rpm, ${be.poles} poles (expected ${fmt(be.expectedFrequencyHz, 6)} Hz; 120·f/n = ${fmt(be.polesFromFrequency, 5)}):`);
     out.push(`  Ke ${fmt(be.keLineRmsPerKrpm, 6)} V_LL,rms/krpm, ${fmt(be.keLinePeakPerKrpm, 6)} V_LL,pk/krpm, ${fmt(be.kePhasePeakPerRadS, 6)} V_ph,pk·s/rad; Kt ≈ ${fmt(be.ktNmPerArms, 5)} N·m/A_rms`);
+    if (be.keLineRmsPerKrpmAtReference != null) out.push(`  Ke at ${be.referenceTemperatureC} °C: ${fmt(be.keLineRmsPerKrpmAtReference, 6)} V_LL,rms/krpm`);
   }
   if (report.power) {
     out.push("");

@@ -1,4 +1,4 @@
-import { computeBackEmf, polesFromSpeed } from "./back-emf";
+import { MAGNET_COEFFICIENTS_PERCENT_PER_K, computeBackEmf, keAtReferenceTemperature, polesFromSpeed } from "./back-emf";
 import { analyseChannel, finiteOrNull, isVoltageRole, type ChannelAnalysis } from "./channel-metrics";
 import { wholeCycleWindow } from "./cycles";
 import { estimateBySpectrum, estimateByZeroCrossings, refineFrequency } from "./frequency";
@@ -148,5 +148,16 @@ function computeBackEmfReport(
     });
   }
   const poles = opts.poles ?? opts.rating?.poles ?? Math.max(2, 2 * Math.round(polesFromFrequency / 2));
-  return { ...computeBackEmf(lineRms, opts.speedRpm, poles), polesFromFrequency, basis: "fundamental" };
+  const result = computeBackEmf(lineRms, opts.speedRpm, poles);
+  const magnet = opts.magnetTemperature;
+  const corrected = magnet
+    ? keAtReferenceTemperature(result.keLineRmsPerKrpm, magnet.measuredC, magnet.referenceC, magnet.coefficientPercentPerK ?? MAGNET_COEFFICIENTS_PERCENT_PER_K[magnet.material])
+    : null;
+  return {
+    ...result,
+    polesFromFrequency,
+    basis: "fundamental",
+    keLineRmsPerKrpmAtReference: finiteOrNull(corrected),
+    referenceTemperatureC: magnet ? magnet.referenceC : null,
+  };
 }

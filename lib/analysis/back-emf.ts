@@ -39,3 +39,13 @@ export function computeBackEmf(lineRmsVolts: number, speedRpm: number, poles: nu
     ktNmPerArms: Math.sqrt(3) * keLineRmsVsPerRad,
   };
 }
+
+/** Reversible temperature coefficients of remanence, percent per kelvin [M: DOMAIN §1, from memory]. */
+export const MAGNET_COEFFICIENTS_PERCENT_PER_K = { ndfeb: -0.11, smco: -0.035, ferrite: -0.2 } as const;
+
+export type MagnetMaterial = keyof typeof MAGNET_COEFFICIENTS_PERCENT_PER_K;
+
+/** Ke(T_ref) = Ke(T)/(1 + α·(T − T_ref)), α in 1/K: back-EMF measured warm, stated at the reference. */
+export function keAtReferenceTemperature(ke: number, measuredC: number, referenceC: number, coefficientPercentPerK: number): number {
+  return ke / (1 + (coefficientPercentPerK / 100) * (measuredC - referenceC));
+}

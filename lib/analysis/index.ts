@@ -15,5 +15,5 @@ export { toleranceProfileSchema, tolerancePresets, type ToleranceProfile } from 
 export { analysisOptionsSchema, type AnalysisOptions } from "./options";
 export { computeThd } from "./thd";
 export { computeMaxDeviationUnbalance, computeVuf, computeVufFromLineMagnitudes, symmetricalComponents } from "./sequence";
-export { computeBackEmf, polesFromSpeed } from "./back-emf";
+export { MAGNET_COEFFICIENTS_PERCENT_PER_K, computeBackEmf, keAtReferenceTemperature, polesFromSpeed } from "./back-emf";
 export { computeThf, computeTif } from "./telephone";

@@ -16,6 +16,16 @@ export const analysisOptionsSchema = z.object({
   marginalGuardPercent: z.number().min(0).max(100).default(10),
   groupingIec: z.boolean().default(false),
   deviationBasis: z.enum(["average-cycle", "worst-cycle"]).default("average-cycle"),
+  /** Magnet temperature during a back-EMF test, to state Ke at a reference temperature. */
+  magnetTemperature: z
+    .object({
+      measuredC: z.number(),
+      referenceC: z.number().default(20),
+      /** Overrides the material's coefficient, percent per kelvin (negative for usual magnets). */
+      coefficientPercentPerK: z.number().optional(),
+      material: z.enum(["ndfeb", "smco", "ferrite"]).default("ndfeb"),
+    })
+    .optional(),
 });
 
 export type AnalysisOptions = z.input<typeof analysisOptionsSchema>;

@@ -50,6 +50,9 @@ const backEmfSchema = z.object({
   keLineRmsVsPerRad: finite,
   ktNmPerArms: finite,
   basis: z.literal("fundamental"),
+  /** Ke_LL,rms per krpm corrected to `referenceTemperatureC`, when a magnet temperature was given. */
+  keLineRmsPerKrpmAtReference: maybe.optional(),
+  referenceTemperatureC: maybe.optional(),
 });
 
 const phasePowerSchema = z.object({

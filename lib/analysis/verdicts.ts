@@ -105,11 +105,12 @@ export function computeVerdicts(measured: Measured, rating: Rating, profile: Tol
 
   add("tif", "Telephone influence factor", maxOf(waveformChannels.map((c) => c.tif)), "", null, profile?.tifMax ?? null, 0, "60 Hz machines only");
 
-  const ke = measured.backEmf?.keLineRmsPerKrpm ?? null;
+  const atReference = measured.backEmf?.keLineRmsPerKrpmAtReference ?? null;
+  const ke = atReference ?? measured.backEmf?.keLineRmsPerKrpm ?? null;
   const keRated = rating.keLineRmsPerKrpm;
   const keTol = profile?.keTolerancePercent;
   const keLimits = keRated !== undefined && keTol !== undefined;
-  add("back-emf-constant", "Back-EMF constant", ke, "V/krpm", keLimits ? keRated * (1 - keTol / 100) : null, keLimits ? keRated * (1 + keTol / 100) : null, keRated ?? 0, "V_LL,rms (fundamental) per 1000 rpm");
+  add("back-emf-constant", "Back-EMF constant", ke, "V/krpm", keLimits ? keRated * (1 - keTol / 100) : null, keLimits ? keRated * (1 + keTol / 100) : null, keRated ?? 0, atReference !== null ? `V_LL,rms (fundamental) per 1000 rpm at ${measured.backEmf?.referenceTemperatureC} °C` : "V_LL,rms (fundamental) per 1000 rpm");
 
   const poles = measured.backEmf?.polesFromFrequency ?? null;
   add("pole-count", "Pole count from speed and frequency", poles, "", rating.poles * 0.98, rating.poles * 1.02, rating.poles, "120·f/n against the rating (±2 % for slip and speed reading)");

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { analyseCapture, computeBackEmf, polesFromSpeed } from "@/lib/analysis";
+import { MAGNET_COEFFICIENTS_PERCENT_PER_K, analyseCapture, computeBackEmf, keAtReferenceTemperature, polesFromSpeed } from "@/lib/analysis";
 import { captureOf, relativeError, synthesise } from "./signals";
 
 describe("computeBackEmf", () => {
@@ -20,6 +20,14 @@ describe("computeBackEmf", () => {
   });
 });
 
+describe("keAtReferenceTemperature", () => {
+  it("keAtReferenceTemperature(NdFeB, 60 °C → 20 °C) divides by 1 − 0.0011·40 (formula and α from memory, DOMAIN §1)", () => {
+    expect(MAGNET_COEFFICIENTS_PERCENT_PER_K.ndfeb).toBe(-0.11);
+    expect(keAtReferenceTemperature(95.6, 60, 20, -0.11)).toBeCloseTo(100, 10);
+    expect(keAtReferenceTemperature(100, 20, 20, -0.2)).toBe(100);
+  });
+});
+
 describe("analyseCapture back-EMF", () => {
   const fs = 20000;
   const make = (shift: number) => synthesise([{ order: 1, amplitude: 100 * Math.SQRT2 }], 100, fs, 4001, shift);
@@ -37,6 +45,14 @@ describe("analyseCapture back-EMF", () => {
     expect(report.backEmf!.polesFromFrequency).toBeCloseTo(6, 6);
     const odd = analyseCapture(capture, { speedRpm: 2400 });
     expect(odd.warnings.map((w) => w.code)).toContain("poles-not-even");
+  });
+
+  it("analyseCapture states Ke at the reference temperature when a magnet temperature is given (DOMAIN §1, from memory)", () => {
+    const report = analyseCapture(capture, { speedRpm: 1500, poles: 8, magnetTemperature: { measuredC: 80, referenceC: 20, material: "smco" } });
+    const measured = report.backEmf!.keLineRmsPerKrpm;
+    expect(report.backEmf!.referenceTemperatureC).toBe(20);
+    expect(report.backEmf!.keLineRmsPerKrpmAtReference).toBeCloseTo(measured / (1 - 0.00035 * 60), 9);
+    expect(analyseCapture(capture, { speedRpm: 1500 }).backEmf!.keLineRmsPerKrpmAtReference).toBeNull();
   });
 
   it("analyseCapture without speed has no back-EMF section (explicit null)", () => {
