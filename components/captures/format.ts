@@ -14,3 +14,10 @@ export function fmtWithUnit(value: number | string | null | undefined, unit: str
 }
 
 export const fmtDate = (iso: string | null) => (iso ? new Date(iso).toISOString().replace("T", " ").slice(0, 19) + " UTC" : "—");
+
+/** Percentages and angles: fixed decimals read better than significant digits near zero. */
+export function fmtFixed(value: number | null | undefined, decimals = 3): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return "—";
+  const text = value.toFixed(decimals);
+  return /^-0\.0*$/.test(text) ? text.slice(1) : text;
+}

@@ -1,5 +1,5 @@
 import type { AnalysisReport } from "@/lib/analysis";
-import { fmt } from "./format";
+import { fmt, fmtFixed } from "./format";
 
 /** Per-channel metrics, then three-phase and back-EMF figures when the capture has them. */
 export function MetricsTable({ report }: { report: AnalysisReport }) {
@@ -7,9 +7,9 @@ export function MetricsTable({ report }: { report: AnalysisReport }) {
     ["Role", (c) => c.role],
     ["True RMS", (c) => `${fmt(c.rms)} ${c.unit}`],
     ["Fundamental RMS", (c) => `${fmt(c.fundamental.rms)} ${c.unit}`],
-    ["Fundamental phase", (c) => `${fmt(c.fundamental.phaseDeg)}°`],
+    ["Fundamental phase", (c) => `${fmtFixed(c.fundamental.phaseDeg, 2)}°`],
     ["Peak", (c) => `${fmt(c.peak)} ${c.unit}`],
-    ["DC", (c) => `${fmt(c.dc)} ${c.unit}`],
+    ["DC", (c) => `${fmtFixed(c.dc, 3)} ${c.unit}`],
     ["Crest factor", (c) => fmt(c.crestFactor)],
     ["THD-F", (c) => `${fmt(c.thdFPercent, 3)} %`],
     ["THD-R", (c) => `${fmt(c.thdRPercent, 3)} %`],
@@ -43,8 +43,8 @@ export function MetricsTable({ report }: { report: AnalysisReport }) {
       {tp ? (
         <dl className="grid grid-cols-2 gap-3 rounded-lg bg-white p-4 text-sm shadow-sm ring-1 ring-ink-200 md:grid-cols-4">
           <div><dt className="text-ink-600">Sequence</dt><dd className="font-semibold">{tp.sequence}</dd></div>
-          <div><dt className="text-ink-600">Displacement AB / BC / CA</dt><dd className="tabular-nums">{fmt(tp.displacementDeg.ab)}° / {fmt(tp.displacementDeg.bc)}° / {fmt(tp.displacementDeg.ca)}°</dd></div>
-          <div><dt className="text-ink-600">Unbalance VUF / NEMA / IEEE</dt><dd className="tabular-nums">{fmt(tp.unbalance.vufPercent, 3)} / {fmt(tp.unbalance.nemaPercent, 3)} / {fmt(tp.unbalance.ieeePercent, 3)} %</dd></div>
+          <div><dt className="text-ink-600">Displacement AB / BC / CA</dt><dd className="tabular-nums">{fmtFixed(tp.displacementDeg.ab, 2)}° / {fmtFixed(tp.displacementDeg.bc, 2)}° / {fmtFixed(tp.displacementDeg.ca, 2)}°</dd></div>
+          <div><dt className="text-ink-600">Unbalance VUF / NEMA / IEEE</dt><dd className="tabular-nums">{fmtFixed(tp.unbalance.vufPercent)} / {fmtFixed(tp.unbalance.nemaPercent)} / {fmtFixed(tp.unbalance.ieeePercent)} %</dd></div>
           <div><dt className="text-ink-600">Line-to-line RMS</dt><dd className="tabular-nums">{tp.lineToLine.map((l) => `${l.id} ${fmt(l.rms)} V`).join(" · ")}</dd></div>
         </dl>
       ) : null}

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { StatusTag } from "@/components/ui/status-tag";
 import { TEST_KIND_LABELS } from "@/lib/captures/input-schemas";
 import { CaptureStateBadge } from "./capture-state-badge";
-import { fmt } from "./format";
+import { fmt, fmtFixed } from "./format";
 
 type Row = {
   id: string; testKind: string; state: "uploading" | "queued" | "analysing" | "analysed" | "rejected" | "failed"; stateMessage: string | null;
@@ -25,14 +25,14 @@ export function UnitCapturesTable({ rows }: { rows: Row[] }) {
         <tbody>
           {rows.map((r) => (
             <tr key={r.id} className="border-t border-ink-100 align-top">
-              <td className="py-1.5 pr-4 tabular-nums">{r.createdAt.slice(0, 16).replace("T", " ")}</td>
+              <td className="whitespace-nowrap py-1.5 pr-4 tabular-nums">{r.createdAt.slice(0, 16).replace("T", " ")}</td>
               <td className="py-1.5 pr-4">{TEST_KIND_LABELS[r.testKind as keyof typeof TEST_KIND_LABELS] ?? r.testKind}</td>
               <td className="py-1.5 pr-4 font-mono"><Link href={`/captures/${r.id}`}>{r.originalName}</Link></td>
               <td className="py-1.5 pr-4" title={r.stateMessage ?? undefined}><CaptureStateBadge state={r.state} /></td>
               <td className="py-1.5 pr-4">{r.state === "analysed" ? <StatusTag status={r.overall} /> : "—"}</td>
               <td className="py-1.5 pr-4 tabular-nums">{fmt(r.frequencyHz, 6)}</td>
-              <td className="py-1.5 pr-4 tabular-nums">{fmt(r.worstThdPercent, 3)}</td>
-              <td className="py-1.5 pr-4 tabular-nums">{fmt(r.vufPercent, 3)}</td>
+              <td className="py-1.5 pr-4 tabular-nums">{fmtFixed(r.worstThdPercent, 2)}</td>
+              <td className="py-1.5 pr-4 tabular-nums">{fmtFixed(r.vufPercent, 3)}</td>
               <td className="py-1.5 tabular-nums">{fmt(r.keLineRmsPerKrpm)}</td>
             </tr>
           ))}
