@@ -6,6 +6,10 @@ const MAX_JSON_BYTES = 64 * 1024;
 
 /** Reads a JSON body and parses it with `schema`; anything else is a 400 naming the first problems. */
 export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<z.output<S>> {
+  // Only JSON bodies: a cross-site HTML form cannot send this content type without a CORS preflight.
+  if (!/^application\/json\b/i.test(request.headers.get("content-type") ?? "")) {
+    throw new HttpError(415, "Send the body as JSON (Content-Type: application/json)");
+  }
   const text = await request.text();
   if (text.length > MAX_JSON_BYTES) throw new HttpError(413, `The request body is larger than ${MAX_JSON_BYTES / 1024} KiB`);
   let raw: unknown;

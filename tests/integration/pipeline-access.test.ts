@@ -3,6 +3,7 @@ import { closeDb } from "@/db/client";
 import { getCaptureDetail } from "@/db/queries/captures";
 import { findStationKeyByPrefix, revokeStationKey } from "@/db/queries/station-keys";
 import { GET as getCaptureRoute } from "@/app/api/v1/captures/[id]/route";
+import { POST as registerRoute } from "@/app/api/v1/captures/route";
 import { GET as getUnitRoute } from "@/app/api/v1/units/[serial]/route";
 import { actorForUser } from "@/lib/dal/actor";
 import { getCaptureStatusView } from "@/lib/dal/captures";
@@ -52,6 +53,10 @@ describe("registerCapture via the bench API: idempotency and bad input", () => {
     const unknown = await registerViaApi(token, csv, { unitSerial: `NOPE-${run}` });
     expect(unknown.status).toBe(422);
     expect(unknown.body.error).toMatch(/No unit with serial/);
+    const asForm = await registerRoute(new Request("http://test/api/v1/captures", {
+      method: "POST", headers: { Authorization: `Bearer ${token}`, "Content-Type": "text/plain" }, body: "{}",
+    }));
+    expect(asForm.status).toBe(415);
     const badRating = await registerViaApi(token, csv, { unitSerial: `NEW-${run}`, newUnitRatingId: "00000000-0000-4000-8000-000000000000" });
     expect(badRating.status).toBe(422);
     expect(badRating.body.error).toMatch(/Unknown rating/);
