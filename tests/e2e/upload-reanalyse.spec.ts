@@ -1,0 +1,34 @@
+import { expect, test } from "@playwright/test";
+import { makeThreePhaseCsv } from "../fixtures/pipeline/make-capture";
+import { signIn, signOut } from "./support";
+
+test("a quality engineer re-runs an analysed capture; the page follows it live and the earlier run stays in history", async ({ page }) => {
+  test.setTimeout(120_000);
+  const run = Date.now() % 1_000_000;
+  await signIn(page, "operator");
+  await page.goto("/upload");
+  await page.getByLabel("Unit serial").fill("KG45-260304");
+  await page.getByLabel("Capture files").setInputFiles([{ name: `rerun-${run}.csv`, mimeType: "text/csv", buffer: Buffer.from(makeThreePhaseCsv({ variant: run })) }]);
+  await page.getByRole("button", { name: "Upload 1 file" }).click();
+  const file = page.getByTestId("upload-file");
+  await expect(file.getByTestId("capture-state")).toHaveAttribute("data-state", "analysed", { timeout: 60_000 });
+  const href = await file.getByRole("link", { name: "Open capture" }).getAttribute("href");
+  await signOut(page);
+
+  await signIn(page, "qa");
+  await page.goto(href ?? "/");
+  await expect(page.getByRole("heading", { name: "Analysis history" })).toHaveCount(0);
+  const states: string[] = [];
+  page.on("response", async (r) => {
+    if (/\/api\/captures\/[0-9a-f-]{36}$/.test(r.url())) states.push(((await r.json().catch(() => ({}))) as { state?: string }).state ?? "");
+  });
+  await page.getByRole("button", { name: "Re-run analysis" }).click();
+  // The live state polls again once the run is queued, and ends analysed without a reload.
+  await expect.poll(() => states.some((s) => s !== "analysed"), { timeout: 30_000 }).toBe(true);
+  await expect(page.getByTestId("capture-state")).toHaveAttribute("data-state", "analysed", { timeout: 60_000 });
+  await expect.poll(() => states[states.length - 1], { timeout: 60_000 }).toBe("analysed");
+  const history = page.getByRole("heading", { name: "Analysis history" }).locator("xpath=..").getByRole("listitem");
+  await page.reload();
+  await expect(history).toHaveCount(2);
+  await expect(history.first()).toContainText("current");
+});
