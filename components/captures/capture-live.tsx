@@ -29,7 +29,8 @@ function CaptureLiveInner({ initial, canReanalyse }: { initial: CaptureStatusVie
         {analysis ? <><span className="text-sm font-semibold">Overall</span><span data-testid="overall"><StatusTag status={analysis.report.overall} /></span></> : null}
         {canReanalyse && isFinalState(c.state) ? <span className="ml-auto"><ReanalyseButton captureId={c.id} /></span> : null}
         {c.state === "analysing" ? <div className="w-full"><ProgressBar fraction={c.progress / 100} label="Analysis" /></div> : null}
-        {c.state === "queued" || c.state === "uploading" ? <p className="w-full text-xs text-ink-600">{c.stateMessage ?? "Waiting for a worker; this page updates by itself."}</p> : null}
+        {c.state === "queued" ? <p className="w-full text-xs text-ink-600">{c.stateMessage ?? "Waiting for a worker; this page updates by itself."}</p> : null}
+        {c.state === "uploading" ? <p className="w-full text-xs text-ink-600">The upload was not completed. Send the same file again from the upload page to finish it.</p> : null}
       </div>
       {analysis && !isFinalState(c.state) ? <Notice kind="info">A new analysis run is on its way; the result below is the current one until it lands.</Notice> : null}
       {c.state === "rejected" ? <Notice kind="problem" title="The capture was rejected">{c.stateMessage}</Notice> : null}
