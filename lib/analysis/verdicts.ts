@@ -61,13 +61,20 @@ export function computeVerdicts(measured: Measured, rating: Rating, profile: Tol
     voltage = phases.length > 0 ? phases.reduce((sum, value) => sum + value, 0) / phases.length : null;
     voltageBasis = "mean line-neutral true RMS";
   }
+  // Away from rated speed the nameplate values move with the shaft: f = p·n/120 and, at constant
+  // excitation, the EMF is proportional to speed (Faraday's law). Within 1 % the nameplate stands.
+  const speed = measured.backEmf?.speedRpm ?? null;
+  const speedRatio = speed !== null && rating.ratedSpeedRpm > 0 ? speed / rating.ratedSpeedRpm : 1;
+  const offRated = Math.abs(speedRatio - 1) > 0.01;
+  const atSpeed = offRated ? ` (nameplate scaled to the test speed, ${speed} rpm)` : "";
+
   const vTol = profile?.voltageTolerancePercent;
-  const vNominal = rating.nominalVoltageV;
-  add("voltage", "Voltage", voltage, "V", vTol !== undefined ? vNominal * (1 - vTol / 100) : null, vTol !== undefined ? vNominal * (1 + vTol / 100) : null, vNominal, voltageBasis);
+  const vNominal = rating.nominalVoltageV * (offRated ? speedRatio : 1);
+  add("voltage", "Voltage", voltage, "V", vTol !== undefined ? vNominal * (1 - vTol / 100) : null, vTol !== undefined ? vNominal * (1 + vTol / 100) : null, vNominal, voltageBasis + atSpeed);
 
   const fTol = profile?.frequencyTolerancePercent;
-  const fNominal = rating.frequencyHz;
-  add("frequency", "Frequency", measured.frequencyHz, "Hz", fTol !== undefined ? fNominal * (1 - fTol / 100) : null, fTol !== undefined ? fNominal * (1 + fTol / 100) : null, fNominal, "fundamental frequency of the reference channel");
+  const fNominal = offRated && speed !== null ? (rating.poles * speed) / 120 : rating.frequencyHz;
+  add("frequency", "Frequency", measured.frequencyHz, "Hz", fTol !== undefined ? fNominal * (1 - fTol / 100) : null, fTol !== undefined ? fNominal * (1 + fTol / 100) : null, fNominal, "fundamental frequency of the reference channel" + (offRated ? ` against p·n/120 at ${speed} rpm` : ""));
 
   add("thd", "Total harmonic distortion", maxOf(waveformChannels.map((c) => c.thdFPercent)), "%", null, profile?.thdMaxPercent ?? null, 0, "THD-F, worst voltage channel");
 

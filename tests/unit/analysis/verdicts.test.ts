@@ -77,3 +77,38 @@ describe("analyseCapture verdicts", () => {
     expect(verdict.lower).toBeCloseTo((400 / 1.5) * 0.95, 9);
   });
 });
+
+describe("analyseCapture verdicts away from rated speed", () => {
+  // 8 poles rated 3000 rpm (200 Hz), spun at 1000 rpm: f = p·n/120 = 66.667 Hz (DOMAIN §1, textbook).
+  const rating: Rating = ratingSchema.parse({
+    nominalVoltageV: 360, voltageBasis: "line-line-rms", frequencyHz: 200, phases: 3, connection: "star",
+    poles: 8, ratedSpeedRpm: 3000, keLineRmsPerKrpm: 120,
+  });
+  // The PM bench preset with a ±5 % voltage band added, so both speed-scaled bands are in play.
+  const profile = toleranceProfileSchema.parse({ ...tolerancePresets.find((p) => p.id === "pm-back-emf-bench"), voltageTolerancePercent: 5, frequencyTolerancePercent: 1 });
+  const fs = 40000;
+  const f = (8 * 1000) / 120;
+  const line = (shift: number) => synthesise([{ order: 1, amplitude: 120 * Math.SQRT2 }], f, fs, 8001, shift);
+  const report = analyseCapture(
+    captureOf([{ id: "vab", samples: line(0) }, { id: "vbc", samples: line((-2 * Math.PI) / 3) }, { id: "vca", samples: line((2 * Math.PI) / 3) }], fs),
+    { rating, tolerance: profile, speedRpm: 1000 },
+  );
+  const byCheck = Object.fromEntries(report.verdicts.map((v) => [v.check, v]));
+
+  it("analyseCapture judges frequency against p·n/120 at the test speed, not the nameplate frequency (textbook)", () => {
+    const frequency = byCheck["frequency"]!;
+    expect(frequency.status).toBe("pass");
+    expect(frequency.lower).toBeCloseTo(f * 0.99, 6);
+    expect(frequency.upper).toBeCloseTo(f * 1.01, 6);
+    expect(frequency.basis).toMatch(/1000 rpm/);
+    expect(report.overall).toBe("pass");
+  });
+
+  it("analyseCapture scales the voltage band with speed (EMF ∝ n at constant excitation, Faraday's law)", () => {
+    const voltage = byCheck["voltage"]!;
+    expect(voltage.status).toBe("pass");
+    expect(voltage.lower).toBeCloseTo(120 * 0.95, 6);
+    expect(voltage.upper).toBeCloseTo(120 * 1.05, 6);
+    expect(voltage.basis).toMatch(/scaled to the test speed/);
+  });
+});
