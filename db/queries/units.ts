@@ -26,26 +26,23 @@ export async function listUnits(scope: Scope, filter: UnitListFilter = {}) {
     .offset(filter.offset ?? 0);
 }
 
-export async function getUnit(scope: Scope, unitId: string) {
+async function findUnit(scope: Scope, match: SQL) {
   const rows = await getDb()
     .select({ unit: units, rating: ratings, owner: organisations.name })
     .from(units)
     .innerJoin(ratings, eq(ratings.id, units.ratingId))
     .innerJoin(organisations, eq(organisations.id, units.organisationId))
-    .where(and(unitScopeWhere(scope), eq(units.id, unitId)))
+    .where(and(unitScopeWhere(scope), match))
     .limit(1);
   return rows[0];
 }
 
-export async function getUnitBySerial(scope: Scope, serial: string) {
-  const rows = await getDb()
-    .select({ unit: units, rating: ratings, owner: organisations.name })
-    .from(units)
-    .innerJoin(ratings, eq(ratings.id, units.ratingId))
-    .innerJoin(organisations, eq(organisations.id, units.organisationId))
-    .where(and(unitScopeWhere(scope), eq(units.serial, serial)))
-    .limit(1);
-  return rows[0];
+export function getUnit(scope: Scope, unitId: string) {
+  return findUnit(scope, eq(units.id, unitId));
+}
+
+export function getUnitBySerial(scope: Scope, serial: string) {
+  return findUnit(scope, eq(units.serial, serial));
 }
 
 export async function countUnitsByOverall(scope: Scope) {
