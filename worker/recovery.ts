@@ -10,9 +10,22 @@ const IDLE_MS = 2_000;
 
 export type SweepResult = { checked: number; requeued: number; markedFailed: number };
 
+const PAGE = 500;
+
 export async function sweepAbandonedCaptures(): Promise<SweepResult> {
-  const rows = await listIdleCapturesAwaitingAnalysis(IDLE_MS);
-  const result: SweepResult = { checked: rows.length, requeued: 0, markedFailed: 0 };
+  const result: SweepResult = { checked: 0, requeued: 0, markedFailed: 0 };
+  // Paged by id, so a backlog of any size is checked in one sweep without holding it all.
+  let afterId: string | undefined;
+  for (;;) {
+    const rows = await listIdleCapturesAwaitingAnalysis(IDLE_MS, PAGE, afterId);
+    result.checked += rows.length;
+    await checkPage(rows, result);
+    if (rows.length < PAGE) return result;
+    afterId = rows[rows.length - 1]?.captureId;
+  }
+}
+
+async function checkPage(rows: Awaited<ReturnType<typeof listIdleCapturesAwaitingAnalysis>>, result: SweepResult): Promise<void> {
   for (const row of rows) {
     const job = await getAnalysisJobState(row.captureId);
     if (LIVE_JOB_STATES.has(job.state)) continue;
@@ -28,5 +41,4 @@ export async function sweepAbandonedCaptures(): Promise<SweepResult> {
     await enqueueAnalysis({ captureId: row.captureId, labId: row.labId });
     result.requeued++;
   }
-  return result;
 }

@@ -130,12 +130,14 @@ export async function listRecentCaptures(scope: Scope, limit = 50) {
  * The worker's recovery sweep, across every lab: ids and lab ids only of captures waiting for
  * analysis whose row has not moved for `idleMs`. The caller checks each against the queue.
  */
-export async function listIdleCapturesAwaitingAnalysis(idleMs: number, limit = 500) {
+export async function listIdleCapturesAwaitingAnalysis(idleMs: number, limit = 500, afterId?: string) {
+  const where = [inArray(captures.state, ["queued", "analysing"]), lt(captures.updatedAt, new Date(Date.now() - idleMs))];
+  if (afterId) where.push(sql`${captures.id} > ${afterId}`);
   return getDb()
     .select({ captureId: captures.id, labId: captures.labId, state: captures.state })
     .from(captures)
-    .where(and(inArray(captures.state, ["queued", "analysing"]), lt(captures.updatedAt, new Date(Date.now() - idleMs))))
-    .orderBy(captures.updatedAt)
+    .where(and(...where))
+    .orderBy(captures.id)
     .limit(limit);
 }
 

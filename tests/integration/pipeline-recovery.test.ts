@@ -42,14 +42,21 @@ describe("nothing lost: the database is the source of truth", () => {
     }
   }, 120_000);
 
-  it("Redis flushed while captures are queued → the start-up sweep re-enqueues them and they are analysed", async () => {
+  it("Redis emptied of the queue while captures are queued → the start-up sweep re-enqueues them and they are analysed", async () => {
     const ids: string[] = [];
     for (const [i, serial] of ["KG45-260304", "KG45-260305"].entries()) {
       const { id } = await uploadViaApi(token, makeThreePhaseCsv({ variant: run + 10 + i }), { unitSerial: serial });
       ids.push(id);
     }
+    // Every key of this queue prefix goes, as after a FLUSHDB, without touching other prefixes in the same db.
     const redis = new Redis(getEnv().REDIS_URL);
-    await redis.flushdb();
+    let cursor = "0";
+    do {
+      const [next, keys] = await redis.scan(cursor, "MATCH", `${getEnv().QUEUE_PREFIX}:*`, "COUNT", 500);
+      if (keys.length > 0) await redis.del(...keys);
+      cursor = next;
+    } while (cursor !== "0");
+    expect(await redis.keys(`${getEnv().QUEUE_PREFIX}:*`)).toEqual([]);
     redis.disconnect();
     for (const id of ids) expect((await waitForState(labId, id, ["queued"], 1_000)).state).toBe("queued");
     const worker = await startWorker();
