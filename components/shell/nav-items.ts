@@ -5,6 +5,7 @@ export type NavItem = { href: string; label: string };
 const ITEMS: Record<string, NavItem> = {
   home: { href: "/", label: "Overview" },
   units: { href: "/units", label: "Units" },
+  captures: { href: "/captures", label: "Captures" },
   upload: { href: "/upload", label: "New capture" },
   review: { href: "/review", label: "Review queue" },
   trends: { href: "/trends", label: "Trends" },
@@ -14,9 +15,9 @@ const ITEMS: Record<string, NavItem> = {
 };
 
 const BY_ROLE: Record<Role, (keyof typeof ITEMS)[]> = {
-  admin: ["home", "units", "upload", "review", "trends", "stations", "people", "mailbox"],
-  operator: ["home", "upload", "units", "stations"],
-  qa: ["home", "review", "units", "trends"],
+  admin: ["home", "units", "captures", "upload", "review", "trends", "stations", "people", "mailbox"],
+  operator: ["home", "upload", "captures", "units", "stations"],
+  qa: ["home", "review", "units", "captures", "trends"],
   manufacturer: ["home", "units"],
 };
 
