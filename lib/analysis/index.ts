@@ -17,3 +17,4 @@ export { computeThd } from "./thd";
 export { computeMaxDeviationUnbalance, computeVuf, computeVufFromLineMagnitudes, symmetricalComponents } from "./sequence";
 export { MAGNET_COEFFICIENTS_PERCENT_PER_K, computeBackEmf, keAtReferenceTemperature, polesFromSpeed } from "./back-emf";
 export { computeThf, computeTif } from "./telephone";
+export { BODY_HEAD_BYTES, BodyRangeFallback, createBodyRangeParser, joinBodyRanges, prepareBodyLayout, type BodyRangeLayout, type BodyRangeParser, type BodyRangeSummary, type PreparedBody } from "./body-range";

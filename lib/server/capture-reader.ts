@@ -1,5 +1,8 @@
 import { open, stat } from "node:fs/promises";
 import { createCaptureParser, type ParsedCapture, type ParseOptions } from "@/lib/analysis";
+import { PARALLEL_MIN_BYTES, readCaptureFileParallel, type ParallelIngestOptions } from "./parallel-ingest";
+
+export type { ParallelIngestOptions } from "./parallel-ingest";
 
 /** Large reads keep the per-chunk overhead of the byte parser negligible. */
 const FILE_CHUNK_BYTES = 1 << 20;
@@ -17,12 +20,27 @@ export async function readCapture(source: AsyncIterable<Uint8Array | string>, op
 }
 
 /**
- * Reads a capture file from disk through two reused buffers (no garbage per chunk): the next read
- * is in flight while the parser works on the current chunk. The file's size sizes the sample
- * arrays once.
+ * Reads a capture file from disk. Files of PARALLEL_MIN_BYTES or more are parsed on two threads
+ * (parallel-ingest.ts), with the same result; anything that path does not take (a rejection, empty
+ * cells, a worker that fails) is read again on the single pass below.
  */
-export async function readCaptureFile(path: string, options: ParseOptions = {}): Promise<ParsedCapture> {
+export async function readCaptureFile(path: string, options: ParseOptions = {}, ingest: ParallelIngestOptions = {}): Promise<ParsedCapture> {
   const { size } = await stat(path);
+  const mode = ingest.parallel ?? "auto";
+  if (mode === "always" || (mode === "auto" && size >= PARALLEL_MIN_BYTES)) {
+    const capture = await readCaptureFileParallel(path, size, options, ingest);
+    if (capture) return capture;
+  } else {
+    ingest.onPath?.({ path: "single", reason: mode === "never" ? "parallel off" : "below the parallel threshold" });
+  }
+  return readCaptureFileSequential(path, size, options);
+}
+
+/**
+ * The single pass: two reused buffers (no garbage per chunk), the next read in flight while the
+ * parser works on the current chunk. The file's size sizes the sample arrays once.
+ */
+async function readCaptureFileSequential(path: string, size: number, options: ParseOptions): Promise<ParsedCapture> {
   const parser = createCaptureParser({ expectedBytes: size, ...options });
   const handle = await open(path, "r");
   try {
