@@ -27,6 +27,8 @@ export interface Measurement {
   analyseS: number;
   totalS: number;
   peakRssMb: number;
+  /** Engine only: which ingestion read the file ("parallel" or "single"). */
+  ingestPath?: string;
   frequencyHz: number;
   thdFPercent: number | null;
   rms: number | null;
@@ -41,8 +43,9 @@ function runJson(command: string, args: string[]): Measurement {
   return JSON.parse(lastLine) as Measurement;
 }
 
-export function runEngine(file: string): Measurement {
-  return runJson(process.execPath, ["--import", "tsx", path.join(ROOT, "scripts/bench/measure-capture.ts"), file]);
+/** `parallel`: "never" = single-thread ingestion, "always" = two threads (worker_threads). */
+export function runEngine(file: string, parallel: "auto" | "always" | "never" = "auto"): Measurement {
+  return runJson(process.execPath, ["--import", "tsx", path.join(ROOT, "scripts/bench/measure-capture.ts"), file, parallel]);
 }
 
 function pandasAvailable(): string | null {
@@ -66,8 +69,12 @@ export function formatRow(label: string, sizeBytes: number, m: Measurement): str
 
 /** The run with the median total of `repeats` runs: one noisy run on a shared machine says little. */
 function medianRun(repeats: number, run: () => Measurement): Measurement {
-  const runs = Array.from({ length: repeats }, run).sort((a, b) => a.totalS - b.totalS);
-  return runs[Math.floor((runs.length - 1) / 2)] as Measurement;
+  return median(Array.from({ length: repeats }, run));
+}
+
+function median(runs: Measurement[]): Measurement {
+  const sorted = [...runs].sort((a, b) => a.totalS - b.totalS);
+  return sorted[Math.floor((sorted.length - 1) / 2)] as Measurement;
 }
 
 function parseRepeats(argv: string[]): number {
@@ -87,7 +94,9 @@ function main(): void {
   const skipped = pandasAvailable();
   const repeats = parseRepeats(process.argv.slice(2));
   const rows: string[][] = [["file", "ingest s", "analyse s", "total s", "MB/s", "peak RSS MB"]];
-  const ratios: string[][] = [["rows", "MB", "engine s", "pandas s", "ratio", "engine RSS", "pandas RSS", "target (1e7)"]];
+  const ratios: string[][] = [
+    ["rows", "MB", "1-thread s", "2-thread s", "pandas s", "ratio 1-thr", "ratio 2-thr", "RSS 1-thr", "RSS 2-thr", "pandas RSS", "target (1e7, 2-thread)"],
+  ];
   const agreement: string[][] = [["rows", "Δf ppm", "ΔTHD-F pp", "ΔRMS %", "Δdeviation pp", "ΔVUF pp"]];
   const gap = (a: number | null, b: number | null, scale = 1, digits = 5): string => (a === null || b === null ? "—" : (scale * (a - b)).toFixed(digits));
   const results: Record<string, unknown>[] = [];
@@ -95,18 +104,29 @@ function main(): void {
     const file = path.join(OUT, `capture-${count.toExponential().replace("+", "")}.csv`);
     const size = ensureBenchCapture(file, count);
     const label = `${count.toExponential(0)} rows (${(size / 1e6).toFixed(0)} MB)`;
-    const engine = medianRun(repeats, () => runEngine(file));
-    rows.push(formatRow(`engine ${label}`, size, engine));
+    // Interleaved, so load drifting on a shared machine hits both ingestions alike.
+    const singleRuns: Measurement[] = [];
+    const engine = medianRun(repeats, () => {
+      singleRuns.push(runEngine(file, "never"));
+      return runEngine(file, "always");
+    });
+    const single = median(singleRuns);
+    rows.push(formatRow(`engine 1-thread ${label}`, size, single));
+    rows.push(formatRow(`engine 2-thread${engine.ingestPath === "parallel" ? "" : " (fell back)"} ${label}`, size, engine));
     const pandas = skipped ? null : medianRun(repeats, () => runPandas(file));
     if (pandas) rows.push(formatRow(`pandas ${label}`, size, pandas));
     const ratio = pandas ? engine.totalS / pandas.totalS : null;
+    const singleRatio = pandas ? single.totalS / pandas.totalS : null;
     const target = count >= 1e7 ? `${ratio !== null && ratio <= TARGET_RATIO ? "met" : "missed"} ≤${TARGET_RATIO}×, ${engine.peakRssMb < TARGET_RSS_MB ? "met" : "missed"} <${TARGET_RSS_MB} MB` : "";
     ratios.push([
       count.toExponential(0),
       (size / 1e6).toFixed(0),
+      seconds(single.totalS),
       seconds(engine.totalS),
       pandas ? seconds(pandas.totalS) : "—",
+      singleRatio !== null ? `${singleRatio.toFixed(2)}×` : "—",
       ratio !== null ? `${ratio.toFixed(2)}×` : "—",
+      single.peakRssMb.toFixed(0),
       engine.peakRssMb.toFixed(0),
       pandas ? pandas.peakRssMb.toFixed(0) : "—",
       target,
@@ -121,7 +141,7 @@ function main(): void {
         gap(engine.vufPercent, pandas.vufPercent),
       ]);
     }
-    results.push({ rows: count, bytes: size, engine, pandas });
+    results.push({ rows: count, bytes: size, engine, engineSingleThread: single, pandas });
   }
   printTable(`Ingestion + analysis, one child process per run, median of ${repeats}`, rows);
   printTable("Engine against pandas + numpy (same files, same run)", ratios);
