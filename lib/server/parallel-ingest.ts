@@ -193,7 +193,10 @@ export async function readCaptureFileParallel(
     let second: Promise<RangeReply> | null = null;
     let base = 0;
     let position = CHUNK_BYTES;
-    const chunk = new Uint8Array(CHUNK_BYTES);
+    // Two buffers, as on the single pass: the next read is in flight while a chunk is parsed.
+    let filling = new Uint8Array(CHUNK_BYTES);
+    let spare = new Uint8Array(CHUNK_BYTES);
+    let pending = readAt(handle, filling, Math.min(CHUNK_BYTES, size - position), position);
     while (position < end) {
       if (!second && worker.ready && position < size * LATEST_SPLIT) {
         const split = await findSplit(handle, position + Math.floor((size - position) / 2), size);
@@ -208,11 +211,15 @@ export async function readCaptureFileParallel(
           }
         }
       }
-      const length = Math.min(CHUNK_BYTES, end - position);
-      const got = await readAt(handle, chunk, length, position);
-      if (got === 0) break;
-      first.push(chunk.subarray(0, got));
-      position += got;
+      // A chunk read before the split is cut at it: chunk boundaries stay those of the single pass.
+      const usable = Math.min(await pending, end - position);
+      if (usable <= 0) break;
+      const ready = filling;
+      [filling, spare] = [spare, ready];
+      const next = position + usable;
+      if (next < end) pending = readAt(handle, filling, Math.min(CHUNK_BYTES, end - next), next);
+      first.push(ready.subarray(0, usable));
+      position = next;
     }
     const summaries: BodyRangeSummary[] = [first.finish()];
     trace(`first range done: ${first.rows} rows`);
