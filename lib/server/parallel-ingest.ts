@@ -59,10 +59,16 @@ interface RangeWorker {
  * requires the TypeScript entry.
  */
 function startRangeWorker(): RangeWorker {
-  const tsxApi = createRequire(import.meta.url).resolve("tsx/cjs/api");
-  const entry = fileURLToPath(new URL("./parallel-ingest-worker.ts", import.meta.url));
-  const boot = `require(${JSON.stringify(tsxApi)}).register(); require(${JSON.stringify(entry)});`;
-  const worker = new Worker(boot, { eval: true });
+  let worker: Worker;
+  try {
+    const tsxApi = createRequire(import.meta.url).resolve("tsx/cjs/api");
+    const entry = fileURLToPath(new URL("./parallel-ingest-worker.ts", import.meta.url));
+    worker = new Worker(`require(${JSON.stringify(tsxApi)}).register(); require(${JSON.stringify(entry)});`, { eval: true });
+  } catch (error) {
+    // No tsx (or no worker threads): a worker that never gets ready, so one thread reads it all.
+    trace(`no worker: ${error instanceof Error ? error.message : String(error)}`);
+    return { ready: false, whenReady: Promise.resolve(false), run: () => Promise.resolve({ kind: "fallback", reason: "no worker" }), stop: () => {} };
+  }
   let ready = false;
   let settle: ((reply: RangeReply) => void) | null = null;
   let readyResolve: (value: boolean) => void = () => {};
