@@ -38,3 +38,16 @@ load_env_file() {
   source "$1"
   set +a
 }
+
+# Settings for the test database, Redis db 1 and bucket emfolio-test: write_test_env PORT QUEUE_PREFIX FILE
+write_test_env() {
+  {
+    bash scripts/services.sh env | sed -nE 's/^TEST_(DATABASE_URL|REDIS_URL)=/\1=/p; s/^TEST_S3_BUCKET=/S3_BUCKET=/p'
+    bash scripts/services.sh env | grep -E '^(S3_ENDPOINT|S3_REGION|S3_ACCESS_KEY_ID|S3_SECRET_ACCESS_KEY|S3_FORCE_PATH_STYLE|SMTP_HOST|SMTP_PORT)='
+    echo "MAIL_DIR=.data/mail"
+    echo "QUEUE_PREFIX=$2"
+    echo "NEXTAUTH_URL=http://127.0.0.1:$1"
+    echo "NEXTAUTH_SECRET=test-secret-not-for-production-0123456789abcdef"
+    echo "SIGN_IN_MAX_ATTEMPTS=8"
+  } >"$3"
+}

@@ -33,15 +33,7 @@ trap cleanup EXIT
 
 mkdir -p "$RESULTS" .data/log
 rm -f "$RESULTS"/*.json
-{
-  bash scripts/services.sh env | sed -nE 's/^TEST_(DATABASE_URL|REDIS_URL)=/\1=/p; s/^TEST_S3_BUCKET=/S3_BUCKET=/p'
-  bash scripts/services.sh env | grep -E '^(S3_ENDPOINT|S3_REGION|S3_ACCESS_KEY_ID|S3_SECRET_ACCESS_KEY|S3_FORCE_PATH_STYLE|SMTP_HOST|SMTP_PORT)='
-  echo "MAIL_DIR=.data/mail"
-  echo "QUEUE_PREFIX=emfolio-test"
-  echo "NEXTAUTH_URL=http://127.0.0.1:$E2E_PORT"
-  echo "NEXTAUTH_SECRET=test-secret-not-for-production-0123456789abcdef"
-  echo "SIGN_IN_MAX_ATTEMPTS=8"
-} >.data/env.test
+write_test_env "$E2E_PORT" emfolio-test .data/env.test
 load_env_file .data/env.test
 export E2E_BASE_URL="http://127.0.0.1:$E2E_PORT"
 

@@ -1,0 +1,30 @@
+#!/usr/bin/env bash
+# The pipeline section of `npm run bench`: 200 captures of 1e5 rows through the bench API of an app
+# started here on the test database (port 3150, queue prefix emfolio-bench), with 1 and 2 worker
+# processes. Reports captures per minute and p95 upload-complete → analysed. It does not pass or fail.
+#   bash scripts/bench/pipeline.sh [--captures N] [--rows R] [--workers 1,2]
+set -euo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/../lib-setup.sh"
+
+PORT="${EMFOLIO_BENCH_PORT:-3150}"
+bash scripts/services.sh start >/dev/null
+mkdir -p .data/log
+write_test_env "$PORT" emfolio-bench .data/env.bench
+load_env_file .data/env.bench
+node_modules/.bin/tsx scripts/reset-test-db.ts >/dev/null
+node_modules/.bin/tsx scripts/migrate.ts >/dev/null
+node_modules/.bin/tsx scripts/seed.ts >/dev/null
+export EMFOLIO_DIST_DIR=.next-test
+[[ -f .next-test/BUILD_ID ]] || node_modules/.bin/next build >.data/log/bench-build.log 2>&1
+node_modules/.bin/next start -H 127.0.0.1 -p "$PORT" >.data/log/bench-web.log 2>&1 &
+web=$!
+trap 'kill -TERM "$web" 2>/dev/null || true; wait "$web" 2>/dev/null || true' EXIT
+for _ in $(seq 1 60); do
+  curl -fsS -o /dev/null "http://127.0.0.1:$PORT/sign-in" 2>/dev/null && break
+  sleep 1
+done
+args=("$@")
+((${#args[@]} > 0)) || args=(--captures 200 --rows 100000 --workers 1,2)
+echo
+echo "== pipeline: captures through the bench API and the worker"
+node --import tsx scripts/bench-pipeline.ts --base-url "http://127.0.0.1:$PORT" "${args[@]}"
