@@ -15,6 +15,7 @@
 import type { ColumnSink } from "./column-sink";
 import { createFastBodyParser } from "./fast-body-parser";
 import { CaptureRejection } from "./rejection";
+import { judgeTimeSteps } from "./time-steps";
 import { sniffLines, type CaptureLayout } from "./sniff";
 import { siUnitFor } from "./units";
 import type { ParsedCapture, ParseOptions, QualityWarning } from "./types";
@@ -302,31 +303,12 @@ export function joinBodyRanges(
     }
     count += range.count;
   }
-  // ColumnSink.finish
-  const warnings: QualityWarning[] = [];
+  // The same whole-column judgement as ColumnSink.finish.
+  let warnings: QualityWarning[] = [];
   let sinkRateHz: number | null = null;
   if (layout.timeColumn !== null && count >= 2) {
-    const meanStep = (timePrevious - timeStart) / (count - 1);
-    const slow = (maxStep - meanStep) / meanStep;
-    const fast = (meanStep - minStep) / meanStep;
-    const worst = Math.max(slow, fast);
-    const worstLine = slow >= fast ? maxStepLine : minStepLine;
-    const column = layout.headers[layout.timeColumn] ?? "time";
-    const tolerance = options.timeStepTolerance ?? 0.25;
-    if (worst > tolerance) {
-      throw new CaptureRejection(
-        "irregular-time",
-        `Irregular time stamps: one step differs from the mean step (${meanStep.toPrecision(6)} s) by ${(100 * worst).toFixed(1)} %, more than the ${(100 * tolerance).toFixed(1)} % allowed (missing samples or a merged record?)`,
-        { line: worstLine, column },
-      );
-    }
-    if (worst > 0.01) {
-      warnings.push({
-        code: "uneven-sampling",
-        message: `Time steps vary by up to ${(100 * worst).toFixed(2)} % of the mean step (worst at line ${worstLine}); results assume even sampling`,
-      });
-    }
-    sinkRateHz = 1 / meanStep;
+    const stats = { timeStartS: timeStart, timeLastS: timePrevious, count, minStep, minStepLine, maxStep, maxStepLine };
+    ({ sampleRateHz: sinkRateHz, warnings } = judgeTimeSteps(stats, options.timeStepTolerance ?? 0.25, layout.headers[layout.timeColumn] ?? "time"));
   }
   // assemble: its rejections are left to the single pass.
   if (count < MIN_SAMPLES) throw new BodyRangeFallback("too few samples");

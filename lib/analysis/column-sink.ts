@@ -1,4 +1,5 @@
 import { CaptureRejection } from "./rejection";
+import { judgeTimeSteps } from "./time-steps";
 import type { QualityWarning } from "./types";
 
 export interface SinkColumn {
@@ -148,29 +149,14 @@ export class ColumnSink {
         );
       }
     }
-    const warnings: QualityWarning[] = [];
+    let warnings: QualityWarning[] = [];
     let sampleRateHz: number | null = null;
     if (this.timeColumn !== null && this.count >= 2) {
-      const meanStep = (this.timePrevious - this.timeStart) / (this.count - 1);
-      const slow = (this.maxStep - meanStep) / meanStep;
-      const fast = (meanStep - this.minStep) / meanStep;
-      const worst = Math.max(slow, fast);
-      const worstLine = slow >= fast ? this.maxStepLine : this.minStepLine;
-      const column = this.columns[this.timeColumn]?.header ?? "time";
-      if (worst > this.timeStepTolerance) {
-        throw new CaptureRejection(
-          "irregular-time",
-          `Irregular time stamps: one step differs from the mean step (${meanStep.toPrecision(6)} s) by ${(100 * worst).toFixed(1)} %, more than the ${(100 * this.timeStepTolerance).toFixed(1)} % allowed (missing samples or a merged record?)`,
-          { line: worstLine, column },
-        );
-      }
-      if (worst > 0.01) {
-        warnings.push({
-          code: "uneven-sampling",
-          message: `Time steps vary by up to ${(100 * worst).toFixed(2)} % of the mean step (worst at line ${worstLine}); results assume even sampling`,
-        });
-      }
-      sampleRateHz = 1 / meanStep;
+      const stats = {
+        timeStartS: this.timeStart, timeLastS: this.timePrevious, count: this.count,
+        minStep: this.minStep, minStepLine: this.minStepLine, maxStep: this.maxStep, maxStepLine: this.maxStepLine,
+      };
+      ({ sampleRateHz, warnings } = judgeTimeSteps(stats, this.timeStepTolerance, this.columns[this.timeColumn]?.header ?? "time"));
     }
     return {
       sampleCount: this.count,
