@@ -51,3 +51,13 @@ write_test_env() {
     echo "SIGN_IN_MAX_ATTEMPTS=8"
   } >"$3"
 }
+
+# Waits up to 60 s for the web app at BASE_URL to answer its sign-in page.
+wait_for_web() {
+  for _ in $(seq 1 60); do
+    curl -fsS -o /dev/null "$1/sign-in" 2>/dev/null && return 0
+    sleep 1
+  done
+  echo "the web app at $1 did not answer within 60 s (see .data/log/)" >&2
+  return 1
+}

@@ -60,10 +60,7 @@ node_modules/.bin/next start -H 127.0.0.1 -p "$E2E_PORT" >.data/log/test-web.log
 pids+=($!)
 node_modules/.bin/tsx worker/index.ts >.data/log/test-worker.log 2>&1 &
 pids+=($!)
-for _ in $(seq 1 60); do
-  curl -fsS -o /dev/null "$E2E_BASE_URL/sign-in" 2>/dev/null && break
-  sleep 1
-done
+wait_for_web "$E2E_BASE_URL" || { tail -30 .data/log/test-web.log; exit 1; }
 # The demo scenario's captures give the review, trends and report tests analysed units to work on.
 node_modules/.bin/tsx --import ./scripts/support/server-only-hook.mjs scripts/seed-captures.ts >.data/log/test-seed-captures.log 2>&1 || { tail -20 .data/log/test-seed-captures.log; exit 1; }
 PLAYWRIGHT_JSON_OUTPUT_NAME="$RESULTS/e2e.json" node_modules/.bin/playwright test --reporter=list,json || status=1

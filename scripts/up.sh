@@ -31,10 +31,7 @@ node_modules/.bin/tsx --import ./scripts/support/server-only-hook.mjs scripts/se
 if $detach; then
   nohup node_modules/.bin/next start -H 127.0.0.1 -p 3000 >>.data/log/web.log 2>&1 &
   echo $! >.data/run/web.pid
-  for _ in $(seq 1 60); do
-    curl -fsS -o /dev/null http://127.0.0.1:3000/sign-in 2>/dev/null && break
-    sleep 1
-  done
+  wait_for_web http://127.0.0.1:3000
   echo "Emfolio is up on http://127.0.0.1:3000 (worker and web in the background; bash scripts/down.sh stops them)"
 else
   trap 'bash scripts/down.sh --quiet' EXIT

@@ -19,10 +19,7 @@ export EMFOLIO_DIST_DIR=.next-test
 node_modules/.bin/next start -H 127.0.0.1 -p "$PORT" >.data/log/bench-web.log 2>&1 &
 web=$!
 trap 'kill -TERM "$web" 2>/dev/null || true; wait "$web" 2>/dev/null || true' EXIT
-for _ in $(seq 1 60); do
-  curl -fsS -o /dev/null "http://127.0.0.1:$PORT/sign-in" 2>/dev/null && break
-  sleep 1
-done
+wait_for_web "http://127.0.0.1:$PORT"
 args=("$@")
 ((${#args[@]} > 0)) || args=(--captures 200 --rows 100000 --workers 1,2)
 echo

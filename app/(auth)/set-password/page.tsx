@@ -1,14 +1,13 @@
 import Link from "next/link";
-import { findUsablePasswordToken } from "@/db/queries/password-tokens";
 import { Notice } from "@/components/ui/notice";
-import { hashToken } from "@/lib/auth/password-links";
+import { getPasswordLinkView } from "@/lib/dal/password-link";
 import { SetPasswordForm } from "./_components/set-password-form";
 
 export const metadata = { title: "Choose a password" };
 
 export default async function SetPasswordPage({ searchParams }: { searchParams: Promise<{ token?: string }> }) {
   const { token } = await searchParams;
-  const found = token && token.length <= 100 ? await findUsablePasswordToken(hashToken(token)) : undefined;
+  const found = await getPasswordLinkView(token);
   return (
     <main className="mx-auto flex min-h-screen max-w-md flex-col justify-center gap-6 px-4 py-10">
       <div className="rounded-lg bg-white p-6 shadow-sm ring-1 ring-ink-200">
