@@ -22,7 +22,12 @@ test("a quality engineer re-runs an analysed capture; the page follows it live a
   page.on("response", async (r) => {
     if (/\/api\/captures\/[0-9a-f-]{36}$/.test(r.url())) states.push(((await r.json().catch(() => ({}))) as { state?: string }).state ?? "");
   });
-  await page.getByRole("button", { name: "Re-run analysis" }).click();
+  // A click before React has hydrated the page does nothing: retry until the request goes out.
+  await expect(async () => {
+    const posted = page.waitForResponse((r) => /\/reanalyse$/.test(r.url()) && r.request().method() === "POST", { timeout: 10_000 });
+    await page.getByRole("button", { name: "Re-run analysis" }).click();
+    expect((await posted).ok()).toBe(true);
+  }).toPass({ timeout: 40_000 });
   // The live state polls again once the run is queued, and ends analysed without a reload.
   await expect.poll(() => states.some((s) => s !== "analysed"), { timeout: 30_000 }).toBe(true);
   await expect(page.getByTestId("capture-state")).toHaveAttribute("data-state", "analysed", { timeout: 60_000 });
