@@ -7,6 +7,7 @@ import type { CaptureStatusView } from "@/lib/dal/captures";
 import { CaptureStateBadge, ProgressBar } from "./capture-state-badge";
 import { CapturePlots } from "./capture-plots";
 import { captureKeys, fetchCaptureStatus, isFinalState } from "./fetchers";
+import { fmtDate } from "./format";
 import { MetricsTable } from "./metrics-table";
 import { ReanalyseButton } from "./reanalyse-button";
 import { CaptureQueryProvider } from "./query-provider";
@@ -27,6 +28,7 @@ function CaptureLiveInner({ initial, canReanalyse }: { initial: CaptureStatusVie
         <span className="text-sm font-semibold">State</span>
         <CaptureStateBadge state={c.state} progress={c.progress} />
         {analysis ? <><span className="text-sm font-semibold">Overall</span><span data-testid="overall"><StatusTag status={analysis.report.overall} /></span></> : null}
+        {analysis ? <span className="text-xs text-ink-600">Current run <time data-testid="current-run" dateTime={analysis.createdAt}>{fmtDate(analysis.createdAt)}</time> · engine {analysis.analysisVersion}</span> : null}
         {canReanalyse && isFinalState(c.state) ? <span className="ml-auto"><ReanalyseButton captureId={c.id} /></span> : null}
         {c.state === "analysing" ? <div className="w-full"><ProgressBar fraction={c.progress / 100} label="Analysis" /></div> : null}
         {c.state === "queued" ? <p className="w-full text-xs text-ink-600">{c.stateMessage ?? "Waiting for a worker; this page updates by itself."}</p> : null}
