@@ -25,6 +25,8 @@ export const envSchema = z.object({
   MAIL_FROM: z.preprocess(blankToUndefined, z.string().default("Emfolio <no-reply@emfolio.invalid>")),
   MAIL_DIR: z.preprocess(blankToUndefined, z.string().optional()),
   UPLOAD_MAX_BYTES: int(2 * 1024 * 1024 * 1024),
+  // An upload not completed within this many hours is abandoned: its parts and row are removed.
+  UPLOAD_ABANDON_HOURS: int(24),
   WORKER_CONCURRENCY: int(1),
   // How long a worker holds a job before another may take it over (stalled-job recovery), in ms.
   WORKER_LOCK_MS: int(30_000),
