@@ -4,6 +4,7 @@ import { closeDb } from "@/db/client";
 import { setCaptureState } from "@/db/queries/captures";
 import { getEnv } from "@/lib/server/env";
 import { ANALYSIS_QUEUE, closeAnalysisQueue, createRedis, type AnalysisJobData } from "@/lib/server/queue";
+import { sweepAbandonedUploads } from "./abandoned-uploads";
 import { sweepAbandonedCaptures } from "./recovery";
 
 // The analysis worker: its own process beside the web app (`npm run worker`, or `node --import tsx worker/index.ts`).
@@ -44,6 +45,10 @@ async function sweep(reason: string): Promise<void> {
   try {
     const r = await sweepAbandonedCaptures();
     if (r.requeued || r.markedFailed) log(`sweep (${reason}): ${r.checked} waiting, ${r.requeued} re-enqueued, ${r.markedFailed} marked failed`);
+    const u = await sweepAbandonedUploads(env.UPLOAD_ABANDON_HOURS * 3_600_000);
+    if (u.removed) log(`sweep (${reason}): ${u.removed} upload(s) abandoned over ${env.UPLOAD_ABANDON_HOURS} h ago removed`);
+    if (u.partsLeft) log(`sweep (${reason}): the object store cannot abort multipart uploads; parts of ${u.partsLeft} upload(s) stay there (use a lifecycle rule)`);
+    for (const e of u.storageErrors) console.error(`sweep (${reason}): could not clean storage of an abandoned upload: ${e}`);
   } catch (err) {
     console.error(`sweep (${reason}) failed: ${err instanceof Error ? err.message : String(err)}`);
   }

@@ -164,3 +164,29 @@ export async function listBenchCaptureTimes(scope: Scope, captureIds: string[]) 
     .from(captures)
     .where(and(inArray(captures.id, captureIds), captureScopeWhere(scope)));
 }
+
+/** Marks an upload as still going (more part URLs asked for), so the abandoned-upload sweep leaves it be. */
+export async function touchUploadingCapture(scope: Scope, captureId: string): Promise<void> {
+  await getDb()
+    .update(captures)
+    .set({ updatedAt: new Date() })
+    .where(and(eq(captures.id, captureId), eq(captures.state, "uploading"), captureScopeWhere(scope)));
+}
+
+/**
+ * The worker's abandoned-upload sweep, across every lab: removes rows still `uploading` whose last
+ * upload URL was issued before `before`, in one statement each page, and returns what they
+ * pointed at in storage so the caller can clean it. Nothing references such a row (no analysis).
+ */
+export async function deleteAbandonedUploads(before: Date, limit = 200) {
+  const stale = getDb()
+    .select({ id: captures.id })
+    .from(captures)
+    .where(and(eq(captures.state, "uploading"), lt(captures.updatedAt, before)))
+    .orderBy(captures.id)
+    .limit(limit);
+  return getDb()
+    .delete(captures)
+    .where(and(inArray(captures.id, stale), eq(captures.state, "uploading"), lt(captures.updatedAt, before)))
+    .returning({ captureId: captures.id, objectKey: captures.objectKey, multipartUploadId: captures.multipartUploadId });
+}

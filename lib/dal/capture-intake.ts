@@ -1,6 +1,6 @@
 import "server-only";
 import { randomUUID } from "node:crypto";
-import { getCaptureDetail, insertCaptureOnce, markCaptureQueued, setCaptureState, setCaptureUpload } from "@/db/queries/captures";
+import { getCaptureDetail, insertCaptureOnce, markCaptureQueued, setCaptureState, setCaptureUpload, touchUploadingCapture } from "@/db/queries/captures";
 import { getStation } from "@/db/queries/stations";
 import { getRatingForRegistration, getUnitBySerial, insertUnitOnce } from "@/db/queries/units";
 import type { Capture } from "@/db/schema";
@@ -76,6 +76,7 @@ export async function presignCaptureParts(actor: Actor, captureId: string, partN
   if (capture.state !== "uploading" || !capture.multipartUploadId) throw new HttpError(409, "This capture is not awaiting a multipart upload");
   const count = partCountFor(capture.sizeBytes);
   if (partNumbers.some((n) => n > count)) throw new HttpError(400, `This upload has ${count} parts`);
+  await touchUploadingCapture(scope, capture.id);
   return presignParts(capture.objectKey, capture.multipartUploadId, partNumbers);
 }
 

@@ -1,5 +1,5 @@
 import {
-  CompleteMultipartUploadCommand, CreateMultipartUploadCommand, DeleteObjectCommand, GetObjectCommand, HeadObjectCommand,
+  AbortMultipartUploadCommand, CompleteMultipartUploadCommand, CreateMultipartUploadCommand, DeleteObjectCommand, GetObjectCommand, HeadObjectCommand,
   PutObjectCommand, S3Client, UploadPartCommand,
 } from "@aws-sdk/client-s3";
 import { getSignedUrl } from "@aws-sdk/s3-request-presigner";
@@ -127,6 +127,22 @@ export async function presignDownload(key: string, fileName: string): Promise<st
 /** Only for uploads that never completed or were refused at completion; analysed objects are never deleted. */
 export async function deleteIncompleteObject(key: string): Promise<void> {
   await getS3().send(new DeleteObjectCommand({ Bucket: getEnv().S3_BUCKET, Key: key }));
+}
+
+/**
+ * Drops the parts of a multipart upload that will never be completed (an unknown upload id is not
+ * an error). Answers false when the store has no abort call (the local fake): its parts stay.
+ */
+export async function abortMultipartUpload(key: string, uploadId: string): Promise<boolean> {
+  try {
+    await getS3().send(new AbortMultipartUploadCommand({ Bucket: getEnv().S3_BUCKET, Key: key, UploadId: uploadId }));
+    return true;
+  } catch (err) {
+    const name = (err as { name?: string } | null)?.name;
+    if (isNotFound(err) || name === "NoSuchUpload") return true;
+    if (name === "MethodNotAllowed" || name === "NotImplemented") return false;
+    throw err;
+  }
 }
 
 export function isNotFound(err: unknown): boolean {
