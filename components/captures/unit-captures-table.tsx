@@ -3,6 +3,7 @@ import { StatusTag } from "@/components/ui/status-tag";
 import { TEST_KIND_LABELS } from "@/lib/captures/input-schemas";
 import { CaptureStateBadge } from "./capture-state-badge";
 import { fmt, fmtFixed } from "./format";
+import { RefreshWhileBusy } from "./refresh-while-busy";
 
 type Row = {
   id: string; testKind: string; state: "uploading" | "queued" | "analysing" | "analysed" | "rejected" | "failed"; stateMessage: string | null;
@@ -15,6 +16,7 @@ export function UnitCapturesTable({ rows }: { rows: Row[] }) {
   if (rows.length === 0) return <p className="text-sm text-ink-600">No captures yet.</p>;
   return (
     <div className="overflow-x-auto">
+      <RefreshWhileBusy states={rows.map((r) => r.state)} />
       <table className="min-w-full text-sm" aria-label="Captures">
         <thead className="text-left text-xs uppercase tracking-wide text-ink-600">
           <tr>

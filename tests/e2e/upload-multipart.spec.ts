@@ -2,7 +2,7 @@ import { expect, test } from "@playwright/test";
 import { makeThreePhaseCsv } from "../fixtures/pipeline/make-capture";
 import { signIn } from "./support";
 
-test("a 40 MB capture goes from the browser to storage in parts (multipart) and is analysed", async ({ page }) => {
+test("a 40 MB capture goes from the browser to storage in parts (multipart), and the captures list follows its analysis without a reload", async ({ page }) => {
   test.setTimeout(180_000);
   const run = Date.now() % 1_000_000;
   // 1e6 rows × 3 channels: above the 32 MiB multipart threshold, below Playwright's 50 MB buffer limit.
@@ -18,6 +18,19 @@ test("a 40 MB capture goes from the browser to storage in parts (multipart) and 
   page.on("request", (r) => { if (r.method() === "PUT" && /partNumber=/.test(r.url())) parts.push(r.url()); });
   await page.getByRole("button", { name: "Upload 1 file" }).click();
   await expect(file.getByRole("progressbar", { name: "Upload" })).toHaveAttribute("aria-valuenow", "100", { timeout: 90_000 });
-  await expect(file.getByTestId("capture-state")).toHaveAttribute("data-state", "analysed", { timeout: 90_000 });
   expect(parts.length).toBeGreaterThanOrEqual(2);
+
+  // Straight to the captures list while the worker is on it: the row updates by itself.
+  await page.goto("/captures");
+  let loads = 0;
+  page.on("load", () => loads++);
+  const row = page.getByRole("row").filter({ hasText: `long-record-${run}.csv` });
+  const first = await row.getByTestId("capture-state").getAttribute("data-state");
+  if (first !== "analysed") await expect(page.getByTestId("refreshing")).toBeAttached();
+  await expect(row.getByTestId("capture-state")).toHaveAttribute("data-state", "analysed", { timeout: 90_000 });
+  await expect(page.getByTestId("refreshing")).toHaveCount(0);
+  expect(loads, "the page was reloaded").toBe(0);
+  await row.getByRole("link", { name: "KG45-260303" }).click();
+  const unitRow = page.getByRole("table", { name: "Captures" }).getByRole("row").filter({ hasText: `long-record-${run}.csv` });
+  await expect(unitRow.getByTestId("capture-state")).toHaveAttribute("data-state", "analysed");
 });

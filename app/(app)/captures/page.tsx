@@ -1,5 +1,6 @@
 import Link from "next/link";
 import { CaptureStateBadge } from "@/components/captures/capture-state-badge";
+import { RefreshWhileBusy } from "@/components/captures/refresh-while-busy";
 import { ReanalyseRatingForm } from "@/components/captures/reanalyse-rating-form";
 import { PageHeader } from "@/components/shell/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -17,6 +18,7 @@ export default async function CapturesPage() {
   return (
     <>
       <PageHeader title="Captures" lead="The latest captures of every unit you may see, newest first." />
+      <RefreshWhileBusy states={rows.map((r) => r.state)} />
       {ratings.length > 0 ? <div className="mb-6"><ReanalyseRatingForm ratings={ratings} /></div> : null}
       {rows.length === 0 ? <EmptyState title="No captures yet" /> : (
         <div className="overflow-x-auto rounded-lg bg-white shadow-sm ring-1 ring-ink-200">
