@@ -15,7 +15,7 @@
 import type { ColumnSink } from "./column-sink";
 import { createFastBodyParser } from "./fast-body-parser";
 import { CaptureRejection } from "./rejection";
-import { judgeTimeSteps } from "./time-steps";
+import { judgeTimeSteps, TimeTrack } from "./time-steps";
 import { sniffLines, type CaptureLayout } from "./sniff";
 import { siUnitFor } from "./units";
 import type { ParsedCapture, ParseOptions, QualityWarning } from "./types";
@@ -126,12 +126,7 @@ class RangeSink {
   private count = 0;
   private firstLine = 0;
   private lastLine = 0;
-  private timeFirst = Number.NaN;
-  private timePrevious = Number.NaN;
-  private minStep = Number.POSITIVE_INFINITY;
-  private maxStep = 0;
-  private minStepLine = 0;
-  private maxStepLine = 0;
+  private readonly time = new TimeTrack();
   private readonly width: number;
   private readonly timeIndex: number;
   private readonly factors: Float64Array;
@@ -172,23 +167,8 @@ class RangeSink {
     for (let c = 0; c < width; c++) {
       if (c !== timeColumn) (stores[c] as Float64Array)[at] = (row[c] as number) * (factors[c] as number) + (offsets[c] as number);
     }
-    if (timeColumn >= 0) {
-      const timeS = (row[timeColumn] as number) * this.layout.timeFactor;
-      if (n === 0) {
-        this.timeFirst = timeS;
-      } else {
-        const step = timeS - this.timePrevious;
-        if (!(step > 0)) throw new BodyRangeFallback("time not increasing");
-        if (step < this.minStep) {
-          this.minStep = step;
-          this.minStepLine = line;
-        }
-        if (step > this.maxStep) {
-          this.maxStep = step;
-          this.maxStepLine = line;
-        }
-      }
-      this.timePrevious = timeS;
+    if (timeColumn >= 0 && !this.time.accept((row[timeColumn] as number) * this.layout.timeFactor, line)) {
+      throw new BodyRangeFallback("time not increasing");
     }
     if (n === 0) this.firstLine = line;
     this.count = n + 1;
@@ -200,12 +180,12 @@ class RangeSink {
       count: this.count,
       lastLine: this.lastLine,
       firstLine: this.firstLine,
-      timeFirst: this.timeFirst,
-      timeLast: this.timePrevious,
-      minStep: this.minStep,
-      minStepLine: this.minStepLine,
-      maxStep: this.maxStep,
-      maxStepLine: this.maxStepLine,
+      timeFirst: this.time.first,
+      timeLast: this.time.last,
+      minStep: this.time.minStep,
+      minStepLine: this.time.minStepLine,
+      maxStep: this.time.maxStep,
+      maxStepLine: this.time.maxStepLine,
     };
   }
 }
@@ -267,48 +247,19 @@ export function joinBodyRanges(
 ): ParsedCapture {
   const { layout } = prepared;
   let count = 0;
-  let timeStart = Number.NaN;
-  let timePrevious = Number.NaN;
-  let minStep = Number.POSITIVE_INFINITY;
-  let maxStep = 0;
-  let minStepLine = 0;
-  let maxStepLine = 0;
+  const time = new TimeTrack();
   for (const range of ranges) {
     if (range.count === 0) continue;
-    if (layout.timeColumn !== null) {
-      if (count === 0) {
-        timeStart = range.timeFirst;
-      } else {
-        // The step across the seam, taken where the single pass takes it.
-        const step = range.timeFirst - timePrevious;
-        if (!(step > 0)) throw new BodyRangeFallback("time not increasing at a seam");
-        if (step < minStep) {
-          minStep = step;
-          minStepLine = range.firstLine;
-        }
-        if (step > maxStep) {
-          maxStep = step;
-          maxStepLine = range.firstLine;
-        }
-      }
-      if (range.minStep < minStep) {
-        minStep = range.minStep;
-        minStepLine = range.minStepLine;
-      }
-      if (range.maxStep > maxStep) {
-        maxStep = range.maxStep;
-        maxStepLine = range.maxStepLine;
-      }
-      timePrevious = range.timeLast;
-    }
+    // The step across the seam is taken where the single pass takes it: on the range's first line.
+    const track = { first: range.timeFirst, last: range.timeLast, ...range };
+    if (layout.timeColumn !== null && !time.append(track, range.firstLine)) throw new BodyRangeFallback("time not increasing at a seam");
     count += range.count;
   }
   // The same whole-column judgement as ColumnSink.finish.
   let warnings: QualityWarning[] = [];
   let sinkRateHz: number | null = null;
   if (layout.timeColumn !== null && count >= 2) {
-    const stats = { timeStartS: timeStart, timeLastS: timePrevious, count, minStep, minStepLine, maxStep, maxStepLine };
-    ({ sampleRateHz: sinkRateHz, warnings } = judgeTimeSteps(stats, options.timeStepTolerance ?? 0.25, layout.headers[layout.timeColumn] ?? "time"));
+    ({ sampleRateHz: sinkRateHz, warnings } = judgeTimeSteps(time.stats(count), options.timeStepTolerance ?? 0.25, layout.headers[layout.timeColumn] ?? "time"));
   }
   // assemble: its rejections are left to the single pass.
   if (count < MIN_SAMPLES) throw new BodyRangeFallback("too few samples");
@@ -327,7 +278,7 @@ export function joinBodyRanges(
   return {
     sampleRateHz,
     sampleCount: count,
-    timeStartS: layout.timeColumn !== null && count > 0 ? timeStart : 0,
+    timeStartS: layout.timeColumn !== null && count > 0 ? time.first : 0,
     channels: out,
     metadata: layout.metadata,
     warnings,

@@ -1,5 +1,5 @@
 import { CaptureRejection } from "./rejection";
-import { judgeTimeSteps } from "./time-steps";
+import { judgeTimeSteps, TimeTrack } from "./time-steps";
 import type { QualityWarning } from "./types";
 
 export interface SinkColumn {
@@ -37,12 +37,7 @@ export class ColumnSink {
   private readonly timeIndex: number;
   private gapSeen = false;
   private lastLine = 0;
-  private timeStart = Number.NaN;
-  private timePrevious = Number.NaN;
-  private minStep = Number.POSITIVE_INFINITY;
-  private maxStep = 0;
-  private minStepLine = 0;
-  private maxStepLine = 0;
+  private readonly time = new TimeTrack();
 
   constructor(
     private readonly columns: readonly SinkColumn[],
@@ -104,27 +99,13 @@ export class ColumnSink {
   }
 
   private acceptTime(timeS: number, line: number): void {
-    if (this.count === 0) {
-      this.timeStart = timeS;
-    } else {
-      const step = timeS - this.timePrevious;
-      if (!(step > 0)) {
-        throw new CaptureRejection(
-          "time-not-increasing",
-          `Time stamps must increase: ${timeS} s follows ${this.timePrevious} s`,
-          { line, column: this.columns[this.timeColumn as number]?.header ?? "time" },
-        );
-      }
-      if (step < this.minStep) {
-        this.minStep = step;
-        this.minStepLine = line;
-      }
-      if (step > this.maxStep) {
-        this.maxStep = step;
-        this.maxStepLine = line;
-      }
+    if (!this.time.accept(timeS, line)) {
+      throw new CaptureRejection(
+        "time-not-increasing",
+        `Time stamps must increase: ${timeS} s follows ${this.time.last} s`,
+        { line, column: this.columns[this.timeColumn as number]?.header ?? "time" },
+      );
     }
-    this.timePrevious = timeS;
   }
 
   private grow(): void {
@@ -152,16 +133,12 @@ export class ColumnSink {
     let warnings: QualityWarning[] = [];
     let sampleRateHz: number | null = null;
     if (this.timeColumn !== null && this.count >= 2) {
-      const stats = {
-        timeStartS: this.timeStart, timeLastS: this.timePrevious, count: this.count,
-        minStep: this.minStep, minStepLine: this.minStepLine, maxStep: this.maxStep, maxStepLine: this.maxStepLine,
-      };
-      ({ sampleRateHz, warnings } = judgeTimeSteps(stats, this.timeStepTolerance, this.columns[this.timeColumn]?.header ?? "time"));
+      ({ sampleRateHz, warnings } = judgeTimeSteps(this.time.stats(this.count), this.timeStepTolerance, this.columns[this.timeColumn]?.header ?? "time"));
     }
     return {
       sampleCount: this.count,
       channels: this.stores.flatMap((store, c) => (c === this.timeColumn ? [] : [store.subarray(0, this.count)])),
-      timeStartS: this.timeColumn !== null && this.count > 0 ? this.timeStart : null,
+      timeStartS: this.timeColumn !== null && this.count > 0 ? this.time.first : null,
       sampleRateHz,
       warnings,
     };

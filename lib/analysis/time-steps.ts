@@ -39,3 +39,63 @@ export function judgeTimeSteps(stats: TimeStepStats, tolerance: number, column: 
   }
   return { sampleRateHz: 1 / meanStep, warnings };
 }
+
+/** A finished track as plain data (it crosses threads). */
+export type TimeTrackSummary = { first: number; last: number; minStep: number; minStepLine: number; maxStep: number; maxStepLine: number };
+
+/**
+ * Follows a time column stamp by stamp without storing it: the first and latest stamp and the
+ * smallest and largest step with the line of each. Shared by the single pass, each parallel range
+ * and the join of ranges, so all three take their extremes the same way.
+ */
+export class TimeTrack {
+  first = Number.NaN;
+  last = Number.NaN;
+  minStep = Number.POSITIVE_INFINITY;
+  minStepLine = 0;
+  maxStep = 0;
+  maxStepLine = 0;
+  private seen = false;
+
+  /** Takes the next stamp; false (and nothing recorded) when it does not increase. */
+  accept(timeS: number, line: number): boolean {
+    if (!this.seen) {
+      this.seen = true;
+      this.first = timeS;
+    } else {
+      const step = timeS - this.last;
+      if (!(step > 0)) return false;
+      this.noteMin(step, line);
+      this.noteMax(step, line);
+    }
+    this.last = timeS;
+    return true;
+  }
+
+  /** Appends a later, non-empty track whose first stamp is on `firstLine`; false when the seam does not increase. */
+  append(later: TimeTrackSummary, firstLine: number): boolean {
+    if (!this.accept(later.first, firstLine)) return false;
+    this.noteMin(later.minStep, later.minStepLine);
+    this.noteMax(later.maxStep, later.maxStepLine);
+    this.last = later.last;
+    return true;
+  }
+
+  stats(count: number): TimeStepStats {
+    return { timeStartS: this.first, timeLastS: this.last, count, minStep: this.minStep, minStepLine: this.minStepLine, maxStep: this.maxStep, maxStepLine: this.maxStepLine };
+  }
+
+  private noteMin(step: number, line: number): void {
+    if (step < this.minStep) {
+      this.minStep = step;
+      this.minStepLine = line;
+    }
+  }
+
+  private noteMax(step: number, line: number): void {
+    if (step > this.maxStep) {
+      this.maxStep = step;
+      this.maxStepLine = line;
+    }
+  }
+}
