@@ -7,6 +7,7 @@ import { Notice } from "@/components/ui/notice";
 import { TEST_KIND_LABELS, TEST_KINDS } from "@/lib/captures/input-schemas";
 import { FileEntryCard } from "./file-entry-card";
 import { CaptureQueryProvider } from "./query-provider";
+import { useLeaveGuard } from "./use-leave-guard";
 import { useUploadQueue, type BatchMeta } from "./use-upload-queue";
 
 export type UploadFormOptions = {
@@ -30,6 +31,8 @@ function UploadFormInner({ options }: { options: UploadFormOptions }) {
 
   const known = options.units.some((u) => u.serial === serial.trim());
   const ready = queue.entries.filter((e) => e.phase === "ready").length;
+  const sending = queue.entries.some((e) => e.phase === "hashing" || e.phase === "uploading" || e.phase === "completing");
+  useLeaveGuard(sending);
 
   const onDrop = (e: DragEvent) => {
     e.preventDefault();
@@ -108,6 +111,7 @@ function UploadFormInner({ options }: { options: UploadFormOptions }) {
       ) : null}
 
       {problem ? <Notice kind="problem">{problem}</Notice> : null}
+      {sending ? <p className="text-xs text-ink-600" role="status">Keep this page open until every file shows Queued: leaving stops the uploads still in progress.</p> : null}
       <Button type="submit" disabled={busy || ready === 0}>{busy ? "Uploading…" : `Upload ${ready || ""} ${ready === 1 ? "file" : "files"}`.replace("  ", " ")}</Button>
     </form>
   );

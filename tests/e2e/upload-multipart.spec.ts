@@ -19,6 +19,8 @@ test("a 40 MB capture goes from the browser to storage in parts (multipart), and
   await page.getByRole("button", { name: "Upload 1 file" }).click();
   await expect(file.getByRole("progressbar", { name: "Upload" })).toHaveAttribute("aria-valuenow", "100", { timeout: 90_000 });
   expect(parts.length).toBeGreaterThanOrEqual(2);
+  // The upload is only done once it is completed (queued): leaving earlier would abandon it.
+  await expect(file.getByTestId("state-trail")).toContainText("Queued", { timeout: 60_000 });
 
   // Straight to the captures list while the worker is on it: the row updates by itself.
   await page.goto("/captures");
