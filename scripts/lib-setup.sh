@@ -18,9 +18,16 @@ ensure_node_modules() {
   fi
 }
 
-# Writes .env for the demo once, with a fresh random secret. An existing .env is left alone.
+# Writes .env for the demo once, with a fresh random secret. An existing .env is left alone,
+# except that one written before attachments existed gets the uploadthing settings appended.
 ensure_dotenv() {
-  if [[ -f .env ]]; then return; fi
+  if [[ -f .env ]]; then
+    if ! grep -q '^UPLOADTHING_TOKEN=' .env; then
+      step "adding the uploadthing settings (attachments) to .env"
+      { echo "# Attachments: the local uploadthing fake (scripts/services.sh)."; bash scripts/services.sh env | grep -E '^UPLOADTHING_'; } >>.env
+    fi
+    return
+  fi
   step "writing .env for the local demo"
   {
     echo "# Written by scripts/up.sh for the local demo. See .env.example for every variable."
@@ -39,11 +46,13 @@ load_env_file() {
   set +a
 }
 
-# Settings for the test database, Redis db 1 and bucket emfolio-test: write_test_env PORT QUEUE_PREFIX FILE
+# Settings for the test database, Redis db 1, bucket emfolio-test and uploadthing app emfolio-test:
+# write_test_env PORT QUEUE_PREFIX FILE
 write_test_env() {
   {
     bash scripts/services.sh env | sed -nE 's/^TEST_(DATABASE_URL|REDIS_URL)=/\1=/p; s/^TEST_S3_BUCKET=/S3_BUCKET=/p'
-    bash scripts/services.sh env | grep -E '^(S3_ENDPOINT|S3_REGION|S3_ACCESS_KEY_ID|S3_SECRET_ACCESS_KEY|S3_FORCE_PATH_STYLE|SMTP_HOST|SMTP_PORT)='
+    bash scripts/services.sh env | grep -E '^(S3_ENDPOINT|S3_REGION|S3_ACCESS_KEY_ID|S3_SECRET_ACCESS_KEY|S3_FORCE_PATH_STYLE|SMTP_HOST|SMTP_PORT|UPLOADTHING_(INGEST_URL|API_URL|UFS_HOST|UFS_APP_ID_LOCATION))='
+    bash scripts/services.sh env | sed -nE 's/^TEST_UPLOADTHING_TOKEN=/UPLOADTHING_TOKEN=/p'
     echo "MAIL_DIR=.data/mail"
     echo "QUEUE_PREFIX=$2"
     echo "NEXTAUTH_URL=http://127.0.0.1:$1"

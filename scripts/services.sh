@@ -1,14 +1,15 @@
 #!/usr/bin/env bash
-# Local services for Emfolio, no Docker: PostgreSQL, Redis, an S3 fake (s3rver)
-# and an SMTP fake, all on 127.0.0.1 with data under .data/ (git-ignored).
+# Local services for Emfolio, no Docker: PostgreSQL, Redis, an S3 fake (s3rver),
+# an SMTP fake and an uploadthing fake, all on 127.0.0.1 with data under .data/ (git-ignored).
 #
-#   bash scripts/services.sh start|stop|status|restart [postgres|redis|s3|smtp]
+#   bash scripts/services.sh start|stop|status|restart [postgres|redis|s3|smtp|uploadthing]
 #   bash scripts/services.sh env      # connection settings for a .env
 #   bash scripts/services.sh verify   # S3 stream round trip, presigned PUT, CORS, a test mail
 #   npm run services -- start
 #
 # Ports (env overrides): EMFOLIO_PG_PORT=54329 EMFOLIO_REDIS_PORT=63799
-# EMFOLIO_S3_PORT=45690 EMFOLIO_SMTP_PORT=2529. Nothing else is read from the
+# EMFOLIO_S3_PORT=45690 EMFOLIO_SMTP_PORT=2529 EMFOLIO_UPLOADTHING_PORT=45700.
+# Nothing else is read from the
 # environment; the app's .env is not needed. See scripts/services/README.md.
 set -euo pipefail
 
@@ -34,6 +35,7 @@ svc_fn() { # svc_fn NAME ACTION -> function name
   case "$1" in
     postgres) printf 'pg_%s' "$2" ;;
     redis | s3 | smtp) printf '%s_%s' "$1" "$2" ;;
+    uploadthing) printf 'ut_%s' "$2" ;;
     *) die "unknown service '$1' (known: ${ALL_SERVICES[*]})" ;;
   esac
 }
@@ -44,6 +46,7 @@ svc_port() {
     redis) printf '%s' "$EMFOLIO_REDIS_PORT" ;;
     s3) printf '%s' "$EMFOLIO_S3_PORT" ;;
     smtp) printf '%s' "$EMFOLIO_SMTP_PORT" ;;
+    uploadthing) printf '%s' "$EMFOLIO_UPLOADTHING_PORT" ;;
   esac
 }
 
@@ -81,7 +84,7 @@ cmd_status() {
       down=1
     fi
     detail="$("$(svc_fn "$name" status_detail)")"
-    printf '%-9s %-6s %-5s %s\n' "$name" "$(svc_port "$name")" "$state" "$detail"
+    printf '%-11s %-6s %-5s %s\n' "$name" "$(svc_port "$name")" "$state" "$detail"
   done
   return "$down"
 }
@@ -104,6 +107,12 @@ SMTP_HOST=127.0.0.1
 SMTP_PORT=$EMFOLIO_SMTP_PORT
 SMTP_URL=smtp://127.0.0.1:$EMFOLIO_SMTP_PORT
 MAIL_DIR=.data/mail
+UPLOADTHING_TOKEN=$(ut_app_token emfolio-demo)
+TEST_UPLOADTHING_TOKEN=$(ut_app_token emfolio-test)
+UPLOADTHING_INGEST_URL=http://127.0.0.1:$EMFOLIO_UPLOADTHING_PORT
+UPLOADTHING_API_URL=http://127.0.0.1:$EMFOLIO_UPLOADTHING_PORT
+UPLOADTHING_UFS_HOST=localhost:$EMFOLIO_UPLOADTHING_PORT
+UPLOADTHING_UFS_APP_ID_LOCATION=path
 ENV
 }
 

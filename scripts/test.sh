@@ -14,12 +14,12 @@ ensure_node_modules
 
 step "local services"
 already_up=()
-for name in postgres redis s3 smtp; do
+for name in postgres redis s3 smtp uploadthing; do
   if bash scripts/services.sh status "$name" >/dev/null 2>&1; then already_up+=("$name"); fi
 done
 bash scripts/services.sh start
 started_here=()
-for name in postgres redis s3 smtp; do
+for name in postgres redis s3 smtp uploadthing; do
   [[ " ${already_up[*]} " == *" $name "* ]] || started_here+=("$name")
 done
 

@@ -6,6 +6,17 @@ const str = () => z.preprocess(blankToUndefined, z.string());
 const url = () => z.preprocess(blankToUndefined, z.url());
 const int = (def: number) => z.preprocess(blankToUndefined, z.coerce.number().int().positive().default(def));
 
+/** An uploadthing token: base64 of `{"apiKey":"sk_…","appId":"…","regions":["…"]}`. */
+export const uploadthingTokenSchema = z.string().refine((token) => {
+  try {
+    const parsed = z.object({ apiKey: z.string().startsWith("sk_"), appId: z.string().min(1), regions: z.array(z.string()).min(1) })
+      .safeParse(JSON.parse(atob(token)));
+    return parsed.success;
+  } catch {
+    return false;
+  }
+}, "must be base64 of a JSON object { apiKey: \"sk_…\", appId, regions: [...] }");
+
 export const envSchema = z.object({
   NODE_ENV: z.preprocess(blankToUndefined, z.enum(["development", "production", "test"]).default("development")),
   DATABASE_URL: url(),
@@ -36,6 +47,15 @@ export const envSchema = z.object({
   ANALYSIS_ATTEMPTS: int(5),
   SIGN_IN_MAX_ATTEMPTS: int(8),
   SIGN_IN_WINDOW_S: int(900),
+  // Attachments (uploadthing). Optional here so the worker and scripts start without them; the
+  // attachment code names a missing token when it is used. The names are the ones the SDK reads.
+  UPLOADTHING_TOKEN: z.preprocess(blankToUndefined, uploadthingTokenSchema.optional()),
+  UPLOADTHING_INGEST_URL: z.preprocess(blankToUndefined, z.url().optional()),
+  UPLOADTHING_API_URL: z.preprocess(blankToUndefined, z.url().optional()),
+  // Where the app reaches its own upload route; default NEXTAUTH_URL + /api/uploadthing.
+  UPLOADTHING_CALLBACK_URL: z.preprocess(blankToUndefined, z.url().optional()),
+  UPLOADTHING_UFS_HOST: z.preprocess(blankToUndefined, z.string().optional()),
+  UPLOADTHING_UFS_APP_ID_LOCATION: z.preprocess(blankToUndefined, z.enum(["subdomain", "path"]).default("subdomain")),
 });
 
 export type Env = Readonly<z.infer<typeof envSchema>>;

@@ -11,6 +11,7 @@ EMFOLIO_PG_PORT="${EMFOLIO_PG_PORT:-54329}"
 EMFOLIO_REDIS_PORT="${EMFOLIO_REDIS_PORT:-63799}"
 EMFOLIO_S3_PORT="${EMFOLIO_S3_PORT:-45690}"
 EMFOLIO_SMTP_PORT="${EMFOLIO_SMTP_PORT:-2529}"
+EMFOLIO_UPLOADTHING_PORT="${EMFOLIO_UPLOADTHING_PORT:-45700}"
 
 DATA_DIR="$PROJECT_ROOT/.data"
 RUN_DIR="$DATA_DIR/run"
@@ -23,7 +24,7 @@ START_TIMEOUT_PG=60
 START_TIMEOUT_DEFAULT=30
 
 # All services, in start order (stop runs in reverse).
-ALL_SERVICES=(postgres redis s3 smtp)
+ALL_SERVICES=(postgres redis s3 smtp uploadthing)
 
 say() { printf '%s\n' "$*"; }
 warn() { printf '%s\n' "$*" >&2; }

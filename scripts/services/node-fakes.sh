@@ -1,5 +1,6 @@
 # shellcheck shell=bash
-# Local Node fakes for scripts/services.sh (S3 via s3rver, SMTP via smtp-server).
+# Local Node fakes for scripts/services.sh (S3 via s3rver, SMTP via smtp-server,
+# uploadthing's ingest and API service via uploadthing-server.ts).
 # Sourced after lib.sh. Each runs detached (setsid + nohup) in its own process
 # group; log in .data/log/<name>.log, pid in .data/run/<name>.pid.
 
@@ -7,6 +8,7 @@ S3_DIR="$DATA_DIR/s3"
 S3_BUCKETS=(emfolio-captures emfolio-test)
 S3_CORS="$SERVICES_DIR/s3-cors.xml"
 MAIL_DIR="$DATA_DIR/mail"
+UT_DIR="$DATA_DIR/uploadthing"
 
 s3_probe() {
   local code
@@ -161,4 +163,39 @@ smtp_stop() {
 
 smtp_status_detail() {
   printf 'smtp://127.0.0.1:%s (any or no auth; mail in .data/mail)' "$EMFOLIO_SMTP_PORT"
+}
+
+# A GET on the fake's /health answers {"ok":true,...}.
+ut_probe() {
+  curl -fsS --max-time 2 "http://127.0.0.1:$EMFOLIO_UPLOADTHING_PORT/health" 2>/dev/null | grep -q '"ok":true'
+}
+
+ut_start() {
+  mkdir -p "$UT_DIR"
+  node_fake_start uploadthing "$EMFOLIO_UPLOADTHING_PORT" ut_probe \
+    "$TSX" "$SERVICES_DIR/uploadthing-server.ts" --port "$EMFOLIO_UPLOADTHING_PORT" --dir "$UT_DIR"
+}
+
+ut_stop() {
+  node_fake_stop uploadthing "$EMFOLIO_UPLOADTHING_PORT" "uploadthing-server.ts"
+}
+
+ut_status_detail() {
+  printf 'http://127.0.0.1:%s (ingest and API; apps emfolio-demo, emfolio-test; files in .data/uploadthing)' "$EMFOLIO_UPLOADTHING_PORT"
+}
+
+# ut_app_token APPID: the UPLOADTHING_TOKEN of a fake app (base64 JSON: apiKey, appId, regions).
+# The app and its random API key are created on first use; the fake reads .data/uploadthing/apps/.
+ut_app_token() {
+  local app="$1" file="$UT_DIR/apps/$1.key" tmp key
+  mkdir -p "$UT_DIR/apps"
+  if [[ ! -s "$file" ]]; then
+    tmp="$file.tmp.$$"
+    (umask 077 && printf 'sk_live_%s\n' "$(head -c 32 /dev/urandom | od -An -tx1 | tr -d ' \n')" >"$tmp")
+    # Two first calls at once: the first key written wins, the other is dropped.
+    mv -n "$tmp" "$file"
+    rm -f "$tmp"
+  fi
+  key="$(tr -d '\n' <"$file")"
+  printf '{"apiKey":"%s","appId":"%s","regions":["local"]}' "$key" "$app" | base64 -w0
 }

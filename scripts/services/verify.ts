@@ -2,7 +2,8 @@
  * End-to-end check of the local services (bash scripts/services.sh verify):
  * PostgreSQL login as emfolio on both databases, Redis PING, an S3 stream
  * round trip (PutObject and a multipart Upload), a presigned PUT with curl, the
- * CORS preflight a browser sends, and a test mail through the SMTP fake.
+ * CORS preflight a browser sends, a test mail through the SMTP fake, and a round trip through the
+ * uploadthing fake with uploadthing's own UTApi (upload, signed read, unsigned read refused, delete).
  * Exits non-zero on the first failure.
  */
 import { createHash, randomBytes } from "node:crypto";
@@ -24,12 +25,14 @@ import { getSignedUrl } from "@aws-sdk/s3-request-presigner";
 import { Redis } from "ioredis";
 import nodemailer from "nodemailer";
 import pg from "pg";
+import { UTApi, UTFile } from "uploadthing/server";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..");
 const PG_PORT = Number(process.env.EMFOLIO_PG_PORT ?? 54329);
 const REDIS_PORT = Number(process.env.EMFOLIO_REDIS_PORT ?? 63799);
 const S3_PORT = Number(process.env.EMFOLIO_S3_PORT ?? 45690);
 const SMTP_PORT = Number(process.env.EMFOLIO_SMTP_PORT ?? 2529);
+const UT_PORT = Number(process.env.EMFOLIO_UPLOADTHING_PORT ?? 45700);
 const ENDPOINT = `http://127.0.0.1:${S3_PORT}`;
 const MAIL_DIR = path.join(root, ".data/mail");
 
@@ -210,12 +213,40 @@ async function checkSmtp(): Promise<void> {
   throw new Error(`mail ${info.messageId} was accepted but no JSON file appeared in ${MAIL_DIR}`);
 }
 
+async function checkUploadthing(): Promise<void> {
+  const base = `http://127.0.0.1:${UT_PORT}`;
+  const health = (await (await fetch(`${base}/health`)).json()) as { ok?: boolean };
+  if (!health.ok) throw new Error("/health did not answer ok");
+  const keyFile = path.join(root, ".data/uploadthing/apps/emfolio-test.key");
+  if (!existsSync(keyFile)) throw new Error(`${keyFile} is missing: run 'bash scripts/services.sh env' once`);
+  const token = Buffer.from(JSON.stringify({ apiKey: readFileSync(keyFile, "utf8").trim(), appId: "emfolio-test", regions: ["local"] })).toString("base64");
+  const utapi = new UTApi({ token, apiUrl: base, ingestUrl: base, ufsHost: `localhost:${UT_PORT}`, ufsAppIdLocation: "path", logLevel: "Error" });
+  const bytes = randomBytes(200_000);
+  const up = await utapi.uploadFiles(new UTFile([bytes], `verify-${Date.now()}.bin`, { type: "application/octet-stream" }));
+  if (up.error) throw new Error(`UTApi.uploadFiles failed: ${up.error.message}`);
+  const { ufsUrl } = await utapi.generateSignedURL(up.data.key, { expiresIn: 60 });
+  const back = Buffer.from(await (await fetch(ufsUrl)).arrayBuffer());
+  if (sha256(back) !== sha256(bytes)) throw new Error("the signed read returned different bytes");
+  ok(`uploadthing: UTApi upload of ${bytes.length} bytes, read back byte-identical through a signed URL`);
+  const pre = await fetch(`${base}/${up.data.key}`, {
+    method: "OPTIONS",
+    headers: { Origin: "http://127.0.0.1:3000", "Access-Control-Request-Method": "PUT", "Access-Control-Request-Headers": "range,x-uploadthing-version" },
+  });
+  if (!/PUT/.test(pre.headers.get("access-control-allow-methods") ?? "")) throw new Error("CORS preflight for PUT refused");
+  ok("uploadthing: CORS preflight for a browser PUT from http://127.0.0.1:3000 allowed");
+  const { deletedCount } = await utapi.deleteFiles(up.data.key);
+  const gone = await fetch(ufsUrl);
+  if (deletedCount !== 1 || gone.status !== 404) throw new Error(`deleteFiles: ${deletedCount} deleted, then the file answered ${gone.status}`);
+  ok("uploadthing: deleteFiles removed it (404 afterwards)");
+}
+
 async function main(): Promise<void> {
   const checks: [string, () => Promise<void>][] = [
     ["postgres", checkPostgres],
     ["redis", checkRedis],
     ["s3", checkS3],
     ["smtp", checkSmtp],
+    ["uploadthing", checkUploadthing],
   ];
   for (const [name, check] of checks) {
     try {
