@@ -13,18 +13,14 @@
  * The app at --base-url must run on the same env (database, bucket, queue prefix). Other workers on
  * the queue would skew the figures: stop them first (the script refuses to start otherwise).
  */
-import { spawn, type ChildProcess } from "node:child_process";
 import { createHash } from "node:crypto";
 import { parseArgs } from "node:util";
 import { closeDb } from "@/db/client";
 import { listBenchCaptureTimes } from "@/db/queries/captures";
-import { findStationKeyByPrefix, insertStationKey, revokeStationKey } from "@/db/queries/station-keys";
-import { listStations } from "@/db/queries/stations";
-import { findActiveUserByEmail } from "@/db/queries/users";
-import { demoUsers } from "@/db/seed-data";
-import { generateStationKey } from "@/lib/server/hash";
+import { revokeStationKey } from "@/db/queries/station-keys";
 import { closeAnalysisQueue, getAnalysisQueue } from "@/lib/server/queue";
 import { makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
+import { benchApi, createBenchKey, startBenchWorker, stopBenchWorker } from "./bench/bench-client";
 import { printTable } from "./bench/table";
 
 const { values: args } = parseArgs({
@@ -41,48 +37,22 @@ const COUNT = Number(args.captures);
 const ROWS = Number(args.rows);
 const UPLOAD_LANES = 4;
 
-async function createKey(): Promise<{ token: string; keyId: string; labId: string }> {
-  const admin = await findActiveUserByEmail(demoUsers.find((u) => u.role === "admin")?.email ?? "");
-  if (!admin) throw new Error("the demo lab manager is missing: seed the database first");
-  const station = (await listStations({ kind: "lab", labId: admin.organisationId }))[0];
-  if (!station) throw new Error("the lab has no bench");
-  const key = generateStationKey();
-  await insertStationKey({ stationId: station.id, prefix: key.prefix, secretHash: key.secretHash, label: "pipeline benchmark", createdById: admin.id });
-  const row = await findStationKeyByPrefix(key.prefix);
-  return { token: key.token, keyId: row?.key.id ?? "", labId: admin.organisationId };
-}
-
-async function api<T>(path: string, token: string, body: unknown): Promise<T> {
-  const res = await fetch(`${BASE}${path}`, { method: "POST", headers: { Authorization: `Bearer ${token}`, "Content-Type": "application/json" }, body: JSON.stringify(body) });
-  const json = (await res.json()) as T & { error?: string };
-  if (!res.ok) throw new Error(`${path}: ${res.status} ${json.error ?? ""}`);
-  return json;
-}
-
 type Plan = { capture: { id: string }; upload: { kind: "single"; url: string; headers: Record<string, string> } | { kind: "multipart" } | null };
 
 async function uploadOne(token: string, csv: string, name: string): Promise<string> {
   const sha256 = createHash("sha256").update(csv).digest("hex");
-  const plan = await api<Plan>("/api/v1/captures", token, { unitSerial: args.serial, testKind: "no-load", speedRpm: 1500, fileName: name, sizeBytes: Buffer.byteLength(csv), sha256 });
+  const plan = await benchApi<Plan>(BASE, "/api/v1/captures", token, { unitSerial: args.serial, testKind: "no-load", speedRpm: 1500, fileName: name, sizeBytes: Buffer.byteLength(csv), sha256 });
   if (plan.upload?.kind !== "single") throw new Error("the benchmark sends files below the multipart threshold only");
   const put = await fetch(plan.upload.url, { method: "PUT", headers: plan.upload.headers, body: csv });
   if (!put.ok) throw new Error(`PUT ${put.status}`);
-  await api(`/api/v1/captures/${plan.capture.id}/complete`, token, {});
+  await benchApi(BASE, `/api/v1/captures/${plan.capture.id}/complete`, token, {});
   return plan.capture.id;
-}
-
-function startWorker(): Promise<ChildProcess> {
-  const proc = spawn(process.execPath, ["--import", "tsx", "worker/index.ts"], { env: { ...process.env, WORKER_CONCURRENCY: "1" }, stdio: ["ignore", "pipe", "inherit"] });
-  return new Promise((resolve, reject) => {
-    proc.stdout?.on("data", (d: Buffer) => { if (d.toString().includes("ready:")) resolve(proc); });
-    proc.once("exit", (code) => reject(new Error(`worker exited (${code}) before it was ready`)));
-  });
 }
 
 const quantile = (sorted: number[], q: number) => sorted[Math.min(sorted.length - 1, Math.floor(q * (sorted.length - 1)))] ?? NaN;
 
 async function runOnce(workers: number, mode: "live" | "backlog", token: string, labId: string, template: string, run: string) {
-  let procs = mode === "live" ? await Promise.all(Array.from({ length: workers }, startWorker)) : [];
+  let procs = mode === "live" ? await Promise.all(Array.from({ length: workers }, startBenchWorker)) : [];
   const ids: string[] = [];
   let next = 0;
   const started = Date.now();
@@ -94,13 +64,13 @@ async function runOnce(workers: number, mode: "live" | "backlog", token: string,
   }));
   const uploadS = (Date.now() - started) / 1000;
   const drainFrom = Date.now();
-  if (mode === "backlog") procs = await Promise.all(Array.from({ length: workers }, startWorker));
+  if (mode === "backlog") procs = await Promise.all(Array.from({ length: workers }, startBenchWorker));
   let times = await listBenchCaptureTimes({ kind: "lab", labId }, ids);
   while (times.some((t) => t.state !== "analysed" && t.state !== "rejected" && t.state !== "failed")) {
     await new Promise((r) => setTimeout(r, 500));
     times = await listBenchCaptureTimes({ kind: "lab", labId }, ids);
   }
-  await Promise.all(procs.map((p) => new Promise((r) => { p.once("exit", r); p.kill("SIGTERM"); })));
+  await Promise.all(procs.map(stopBenchWorker));
   const done = times.filter((t) => t.state === "analysed" && t.uploadedAt && t.analysedAt);
   const latency = done.map((t) => ((t.analysedAt as Date).getTime() - (t.uploadedAt as Date).getTime()) / 1000).sort((a, b) => a - b);
   const first = mode === "live" ? Math.min(...done.map((t) => (t.uploadedAt as Date).getTime())) : drainFrom;
@@ -111,7 +81,7 @@ async function runOnce(workers: number, mode: "live" | "backlog", token: string,
 async function main() {
   const live = await getAnalysisQueue().getWorkersCount();
   if (live > 0) throw new Error(`${live} worker(s) already serve this queue: stop them, or the figures mean nothing`);
-  const { token, keyId, labId } = await createKey();
+  const { token, keyId, labId } = await createBenchKey("pipeline benchmark");
   const template = makeThreePhaseCsv({ sampleRateHz: 10_000, cycles: ROWS / 200 });
   const run = Date.now().toString(36);
   console.log(`${COUNT} captures × ${ROWS.toLocaleString("en")} rows (${(template.length / 1024 ** 2).toFixed(1)} MiB each) through ${BASE}`);

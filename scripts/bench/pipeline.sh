@@ -1,7 +1,9 @@
 #!/usr/bin/env bash
 # The pipeline section of `npm run bench`: 200 captures of 1e5 rows through the bench API of an app
 # started here on the test database (port 3150, queue prefix emfolio-bench), with 1 and 2 worker
-# processes. Reports captures per minute and p95 upload-complete → analysed. It does not pass or fail.
+# processes. Reports captures per minute and p95 upload-complete → analysed. Then one capture of
+# EMFOLIO_BENCH_LARGE_MIB (default 1024; 0 skips it) through the same app and a worker, against the
+# engine on the same file from local disk. It does not pass or fail.
 #   bash scripts/bench/pipeline.sh [--captures N] [--rows R] [--workers 1,2]
 set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/../lib-setup.sh"
@@ -25,3 +27,9 @@ args=("$@")
 echo
 echo "== pipeline: captures through the bench API and the worker"
 node --import tsx scripts/bench-pipeline.ts --base-url "http://127.0.0.1:$PORT" "${args[@]}"
+LARGE_MIB="${EMFOLIO_BENCH_LARGE_MIB:-1024}"
+if ((LARGE_MIB > 0)); then
+  echo
+  echo "== large capture: ${LARGE_MIB} MiB through the bench API and one worker"
+  node --import tsx scripts/bench/large-capture.ts --base-url "http://127.0.0.1:$PORT" --mib "$LARGE_MIB"
+fi
