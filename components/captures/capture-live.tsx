@@ -3,6 +3,7 @@
 import { useQuery } from "@tanstack/react-query";
 import { Notice } from "@/components/ui/notice";
 import { StatusTag } from "@/components/ui/status-tag";
+import { ANALYSIS_VERSION } from "@/lib/analysis/version";
 import type { CaptureStatusView } from "@/lib/dal/captures";
 import { CaptureStateBadge, ProgressBar } from "./capture-state-badge";
 import { CapturePlots } from "./capture-plots";
@@ -35,6 +36,11 @@ function CaptureLiveInner({ initial, canReanalyse }: { initial: CaptureStatusVie
         {c.state === "uploading" ? <p className="w-full text-xs text-ink-600">The upload was not completed. Send the same file again from the upload page to finish it.</p> : null}
       </div>
       {analysis && !isFinalState(c.state) ? <Notice kind="info">A new analysis run is on its way; the result below is the current one until it lands.</Notice> : null}
+      {analysis && isFinalState(c.state) && analysis.analysisVersion !== ANALYSIS_VERSION ? (
+        <Notice kind="info">
+          This result was made by engine {analysis.analysisVersion}; the installed engine is {ANALYSIS_VERSION}. A re-run brings it up to date, and this result stays in the history.
+        </Notice>
+      ) : null}
       {c.state === "rejected" ? <Notice kind="problem" title="The capture was rejected">{c.stateMessage}</Notice> : null}
       {c.state === "failed" ? <Notice kind="problem" title="The analysis failed">{c.stateMessage}</Notice> : null}
       {analysis ? (
