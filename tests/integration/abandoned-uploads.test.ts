@@ -1,14 +1,12 @@
 import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { closeDb, getDb } from "@/db/client";
+import { getDb } from "@/db/client";
 import { getCaptureDetail } from "@/db/queries/captures";
 import { captures } from "@/db/schema";
 import { headObject } from "@/lib/server/storage";
-import { closeAnalysisQueue } from "@/lib/server/queue";
 import { makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
 import { sweepAbandonedUploads } from "@/worker/abandoned-uploads";
-import { seededOrgs } from "./helpers";
-import { completeViaApi, createStationToken, registerViaApi, sha256 } from "./pipeline-support";
+import { closeConnections, completeViaApi, demoLabStation, registerViaApi, sha256 } from "./pipeline-support";
 
 const DAY_MS = 24 * 3_600_000;
 let labId: string;
@@ -16,14 +14,9 @@ let token: string;
 const run = Date.now() % 100_000;
 
 beforeAll(async () => {
-  labId = (await seededOrgs()).lab.id;
-  token = (await createStationToken(labId)).token;
+  ({ labId, token } = await demoLabStation());
 });
-
-afterAll(async () => {
-  await closeAnalysisQueue();
-  await closeDb();
-});
+afterAll(closeConnections);
 
 const lab = () => ({ kind: "lab" as const, labId });
 const backdate = (id: string, ms: number) => getDb().update(captures).set({ updatedAt: new Date(Date.now() - ms) }).where(eq(captures.id, id));

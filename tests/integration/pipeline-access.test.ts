@@ -1,5 +1,4 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { closeDb } from "@/db/client";
 import { getCaptureDetail } from "@/db/queries/captures";
 import { findStationKeyByPrefix, revokeStationKey } from "@/db/queries/station-keys";
 import { GET as getCaptureRoute } from "@/app/api/v1/captures/[id]/route";
@@ -7,11 +6,9 @@ import { POST as registerRoute } from "@/app/api/v1/captures/route";
 import { GET as getUnitRoute } from "@/app/api/v1/units/[serial]/route";
 import { actorForUser } from "@/lib/dal/actor";
 import { getCaptureStatusView } from "@/lib/dal/captures";
-import { closeAnalysisQueue } from "@/lib/server/queue";
 import { headObject } from "@/lib/server/storage";
 import { makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
-import { seededOrgs } from "./helpers";
-import { createOtherLab, createStationToken, registerViaApi, uploadViaApi } from "./pipeline-support";
+import { closeConnections, createOtherLab, createStationToken, demoLabStation, registerViaApi, uploadViaApi } from "./pipeline-support";
 
 let labId: string;
 let token: string;
@@ -19,14 +16,9 @@ const run = Date.now() % 1_000_000;
 const get = (token: string) => new Request("http://test/api/v1/x", { headers: { Authorization: `Bearer ${token}` } });
 
 beforeAll(async () => {
-  labId = (await seededOrgs()).lab.id;
-  token = (await createStationToken(labId)).token;
+  ({ labId, token } = await demoLabStation());
 });
-
-afterAll(async () => {
-  await closeAnalysisQueue();
-  await closeDb();
-});
+afterAll(closeConnections);
 
 describe("registerCapture via the bench API: idempotency and bad input", () => {
   it("re-sending the same file for the same unit returns the existing capture, not a duplicate", async () => {

@@ -1,25 +1,17 @@
 import { Redis } from "ioredis";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { closeDb } from "@/db/client";
 import { getEnv } from "@/lib/server/env";
-import { closeAnalysisQueue } from "@/lib/server/queue";
 import { makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
-import { seededOrgs } from "./helpers";
-import { createStationToken, startWorker, uploadViaApi, waitForState } from "./pipeline-support";
+import { closeConnections, demoLabStation, startWorker, uploadViaApi, waitForState } from "./pipeline-support";
 
 let labId: string;
 let token: string;
 const run = Date.now() % 100_000;
 
 beforeAll(async () => {
-  labId = (await seededOrgs()).lab.id;
-  token = (await createStationToken(labId)).token;
+  ({ labId, token } = await demoLabStation());
 });
-
-afterAll(async () => {
-  await closeAnalysisQueue();
-  await closeDb();
-});
+afterAll(closeConnections);
 
 describe("nothing lost: the database is the source of truth", () => {
   it("worker killed (SIGKILL) mid-job → the capture is analysed after a restart", async () => {

@@ -1,7 +1,7 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import { createHash } from "node:crypto";
 import { eq } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { closeDb, getDb } from "@/db/client";
 import { getCaptureDetail } from "@/db/queries/captures";
 import { insertStationKey } from "@/db/queries/station-keys";
 import { listStations } from "@/db/queries/stations";
@@ -9,14 +9,28 @@ import { getUnitBySerial } from "@/db/queries/units";
 import { organisations, stations, users, type CaptureState } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/options";
 import { generateStationKey } from "@/lib/server/hash";
+import { closeAnalysisQueue } from "@/lib/server/queue";
 import { POST as registerRoute } from "@/app/api/v1/captures/route";
 import { POST as completeRoute } from "@/app/api/v1/captures/[id]/complete/route";
 import type { UploadPlan } from "@/lib/captures/input-schemas";
+import { seededOrgs } from "./helpers";
 
 // Helpers for the pipeline tests: bench-API calls through the real route handlers, a real
 // worker process, and polling of the database (the source of truth).
 
 export const sha256 = (text: string) => createHash("sha256").update(text).digest("hex");
+
+/** The seeded lab and a fresh station key of its first bench (for a file's beforeAll). */
+export async function demoLabStation(): Promise<{ labId: string; token: string }> {
+  const labId = (await seededOrgs()).lab.id;
+  return { labId, token: (await createStationToken(labId)).token };
+}
+
+/** Closes the queue and the pool (for a file's afterAll). */
+export async function closeConnections(): Promise<void> {
+  await closeAnalysisQueue();
+  await closeDb();
+}
 
 export async function createStationToken(labId: string): Promise<{ token: string; stationId: string }> {
   const station = (await listStations({ kind: "lab", labId }))[0];

@@ -1,14 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { closeDb } from "@/db/client";
 import { getCurrentAnalysis, listAnalysisHistory } from "@/db/queries/analyses";
 import { getUnit } from "@/db/queries/units";
 import { HttpError } from "@/lib/auth/guards";
 import { actorForUser } from "@/lib/dal/actor";
 import { requestReanalysis } from "@/lib/dal/reanalysis";
-import { closeAnalysisQueue } from "@/lib/server/queue";
 import { makeBrokenCsv, makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
-import { seededOrgs } from "./helpers";
-import { completeViaApi, createOtherLab, createStationToken, registerViaApi, startWorker, unitId, uploadViaApi, waitForState, type WorkerProcess } from "./pipeline-support";
+import { closeConnections, completeViaApi, createOtherLab, demoLabStation, registerViaApi, startWorker, type WorkerProcess, unitId, uploadViaApi, waitForState } from "./pipeline-support";
 
 let worker: WorkerProcess;
 let labId: string;
@@ -16,15 +13,13 @@ let token: string;
 const run = Date.now();
 
 beforeAll(async () => {
-  labId = (await seededOrgs()).lab.id;
-  token = (await createStationToken(labId)).token;
+  ({ labId, token } = await demoLabStation());
   worker = await startWorker();
 });
 
 afterAll(async () => {
   await worker?.stop();
-  await closeAnalysisQueue();
-  await closeDb();
+  await closeConnections();
 });
 
 describe("bench API upload → queue → worker → PostgreSQL", () => {
