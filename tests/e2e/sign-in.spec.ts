@@ -57,3 +57,13 @@ test("the API refuses a request without a session", async ({ request }) => {
   expect(response.status()).toBe(401);
   void ACCOUNTS;
 });
+
+test("pages and the API are sent with anti-framing, no-sniff and referrer headers", async ({ request }) => {
+  for (const path of ["/sign-in", "/api/health"]) {
+    const headers = (await request.get(path)).headers();
+    expect(headers["x-frame-options"], path).toBe("DENY");
+    expect(headers["content-security-policy"], path).toContain("frame-ancestors 'none'");
+    expect(headers["x-content-type-options"], path).toBe("nosniff");
+    expect(headers["referrer-policy"], path).toBe("same-origin");
+  }
+});
