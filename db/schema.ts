@@ -238,3 +238,32 @@ export const passwordTokens = pgTable(
 );
 
 export type PasswordToken = typeof passwordTokens.$inferSelect;
+
+export const attachmentKind = pgEnum("attachment_kind", ["nameplate", "set-up", "scope-screen", "certificate", "other"]);
+
+/**
+ * A file lab staff attached to a unit (photo, scope screenshot, certificate, signed sheet). The bytes
+ * live in the uploadthing store under `fileKey`; this row is written by the upload route's
+ * onUploadComplete and is what every read checks scope against.
+ */
+export const attachments = pgTable(
+  "attachments",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    unitId: uuid("unit_id").notNull().references(() => units.id),
+    kind: attachmentKind("kind").notNull(),
+    caption: text("caption").notNull().default(""),
+    originalName: text("original_name").notNull(),
+    contentType: text("content_type").notNull(),
+    sizeBytes: bigint("size_bytes", { mode: "number" }).notNull(),
+    fileKey: text("file_key").notNull().unique(),
+    // md5 of the bytes as the store reports it.
+    fileHash: text("file_hash").notNull(),
+    uploadedById: uuid("uploaded_by_id").notNull().references(() => users.id),
+    createdAt: createdAt(),
+  },
+  (t) => [index("attachments_unit_idx").on(t.unitId, t.createdAt)],
+);
+
+export type Attachment = typeof attachments.$inferSelect;
+export type AttachmentKind = (typeof attachmentKind.enumValues)[number];

@@ -4,6 +4,7 @@ import { createConnection } from "node:net";
 import { pingDatabase } from "@/db/queries/health";
 import { getEnv } from "./env";
 import { getS3 } from "./storage";
+import { pingAttachmentStore } from "./uploadthing";
 
 export type ServiceCheck = { service: string; ok: boolean; detail: string };
 
@@ -48,5 +49,6 @@ export async function checkServices(): Promise<ServiceCheck[]> {
       const socket = createConnection({ host: env.SMTP_HOST, port: env.SMTP_PORT }, () => { socket.end(); resolve(); });
       socket.on("error", reject);
     })),
+    check("attachments", env.UPLOADTHING_API_URL ?? "uploadthing (default API URL)", pingAttachmentStore),
   ]);
 }
