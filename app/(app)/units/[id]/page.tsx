@@ -6,6 +6,7 @@ import { getUnitCaptureRows } from "@/lib/dal/captures";
 import { getUnitHistoryView } from "@/lib/dal/review";
 import { getUnitView } from "@/lib/dal/units";
 import { DispositionPanel } from "./_components/disposition-panel";
+import { UnitAttachments } from "./_components/unit-attachments";
 import { UnitHistory } from "./_components/unit-history";
 
 export default async function UnitPage({ params }: { params: Promise<{ id: string }> }) {
@@ -37,6 +38,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
         <h2 id="captures" className="mb-3 font-semibold">Captures</h2>
         <UnitCapturesTable rows={captureRows} />
       </section>
+      <UnitAttachments unitId={unit.id} />
       <section aria-labelledby="decisions" className="mt-6 grid gap-6 rounded-lg bg-white p-5 shadow-sm ring-1 ring-ink-200 md:grid-cols-2">
         <div>
           <h2 id="decisions" className="mb-3 font-semibold">Decisions</h2>
