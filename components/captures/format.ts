@@ -9,7 +9,8 @@ export function fmt(value: number | null | undefined, digits = 4): string {
 
 export function fmtWithUnit(value: number | string | null | undefined, unit: string, digits = 4): string {
   if (typeof value === "string") return value;
-  const text = fmt(value, digits);
+  // Small percentages read as 0.000 %, not 4.019e-4 %: the tables compare them with limits of a few percent.
+  const text = unit === "%" && typeof value === "number" && Math.abs(value) < 1 ? fmtFixed(value, 3) : fmt(value, digits);
   return text === "—" || !unit ? text : `${text} ${unit}`;
 }
 
