@@ -112,20 +112,6 @@ export async function listCapturesForUnit(scope: Scope, unitId: string) {
     .limit(200);
 }
 
-export async function listRecentCaptures(scope: Scope, limit = 50) {
-  return getDb()
-    .select({
-      id: captures.id, serial: units.serial, unitId: units.id, testKind: captures.testKind, state: captures.state,
-      progress: captures.progress, originalName: captures.originalName, createdAt: captures.createdAt, overall: analyses.overall,
-    })
-    .from(captures)
-    .innerJoin(units, eq(units.id, captures.unitId))
-    .leftJoin(analyses, and(eq(analyses.captureId, captures.id), eq(analyses.current, true)))
-    .where(unitScopeWhere(scope))
-    .orderBy(desc(captures.createdAt))
-    .limit(limit);
-}
-
 /**
  * The worker's recovery sweep, across every lab: ids and lab ids only of captures waiting for
  * analysis whose row has not moved for `idleMs`. The caller checks each against the queue.

@@ -1,6 +1,6 @@
 import "server-only";
 import { getCurrentAnalysis, listAnalysisHistory } from "@/db/queries/analyses";
-import { getCaptureDetail, listCapturesForUnit, listRecentCaptures } from "@/db/queries/captures";
+import { getCaptureDetail, listCapturesForUnit } from "@/db/queries/captures";
 import { getUnitBySerial, listRatingsForRegistration } from "@/db/queries/units";
 import type { AnalysisReport } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
@@ -69,10 +69,6 @@ export async function getCaptureDownloadUrl(actor: Actor, captureId: string): Pr
   if (!found) throw new HttpError(404, "No such capture");
   if (found.capture.state === "uploading") throw new HttpError(409, "The upload of this capture has not been completed");
   return presignDownload(found.capture.objectKey, found.capture.originalName);
-}
-
-export async function getRecentCaptures(actor: Actor, limit = 50) {
-  return listRecentCaptures(actor.scope, limit);
 }
 
 /** A unit with its captures, their states and verdicts (bench API and unit page). */

@@ -1,45 +1,50 @@
 import Link from "next/link";
-import { CaptureStateBadge } from "@/components/captures/capture-state-badge";
 import { RefreshWhileBusy } from "@/components/captures/refresh-while-busy";
 import { ReanalyseRatingForm } from "@/components/captures/reanalyse-rating-form";
 import { PageHeader } from "@/components/shell/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
-import { StatusTag } from "@/components/ui/status-tag";
 import { requireUser } from "@/lib/auth/guards";
 import { actorForUser } from "@/lib/dal/actor";
-import { getRecentCaptures, getReanalysisRatings } from "@/lib/dal/captures";
+import { captureListQuerySchema, getCaptureListView, type CaptureListQuery } from "@/lib/dal/capture-list";
+import { getReanalysisRatings } from "@/lib/dal/captures";
+import { CaptureFilters } from "./_components/capture-filters";
+import { CaptureListTable, type ListLink } from "./_components/capture-list-table";
 
 export const metadata = { title: "Captures" };
 
-export default async function CapturesPage() {
+export default async function CapturesPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requireUser();
-  const rows = await getRecentCaptures(actorForUser(user), 100);
+  const parsed = captureListQuerySchema.safeParse(await searchParams);
+  const query: CaptureListQuery = parsed.success ? parsed.data : captureListQuerySchema.parse({});
+  const view = await getCaptureListView(actorForUser(user), query);
   const ratings = user.role === "admin" ? await getReanalysisRatings() : [];
+  const link: ListLink = (overrides) => {
+    const merged: Record<string, string | number | undefined> = { ...query, ...overrides };
+    const p = new URLSearchParams();
+    for (const [k, v] of Object.entries(merged)) {
+      const isDefault = (k === "page" && v === 1) || (k === "sort" && v === "captured") || (k === "dir" && v === "desc");
+      if (v !== undefined && v !== "" && !isDefault) p.set(k, String(v));
+    }
+    return `/captures${p.size ? `?${p}` : ""}`;
+  };
+  const filtered = Boolean(query.q || query.state || query.overall || query.kind);
   return (
     <>
-      <PageHeader title="Captures" lead="The latest captures of every unit you may see, newest first." />
-      <RefreshWhileBusy states={rows.map((r) => r.state)} />
+      <PageHeader title="Captures" lead="Every capture of the units you may see. Filter by serial, state, verdict or test; sort on a figure by its column." />
+      <RefreshWhileBusy states={view.rows.map((r) => r.state)} />
       {ratings.length > 0 ? <div className="mb-6"><ReanalyseRatingForm ratings={ratings} /></div> : null}
-      {rows.length === 0 ? <EmptyState title="No captures yet" /> : (
-        <div className="overflow-x-auto rounded-lg bg-white shadow-sm ring-1 ring-ink-200">
-          <table className="min-w-full text-sm">
-            <thead className="bg-ink-100 text-left text-xs uppercase tracking-wide text-ink-600">
-              <tr><th className="px-4 py-2">Captured</th><th className="px-4 py-2">Unit</th><th className="px-4 py-2">File</th><th className="px-4 py-2">State</th><th className="px-4 py-2">Verdict</th></tr>
-            </thead>
-            <tbody>
-              {rows.map((r) => (
-                <tr key={r.id} className="border-t border-ink-100">
-                  <td className="px-4 py-2 tabular-nums">{r.createdAt.toISOString().slice(0, 16).replace("T", " ")}</td>
-                  <td className="px-4 py-2 font-mono"><Link href={`/units/${r.unitId}`}>{r.serial}</Link></td>
-                  <td className="px-4 py-2 font-mono"><Link href={`/captures/${r.id}`}>{r.originalName}</Link></td>
-                  <td className="px-4 py-2"><CaptureStateBadge state={r.state} progress={r.progress} /></td>
-                  <td className="px-4 py-2">{r.state === "analysed" ? <StatusTag status={r.overall} /> : "—"}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+      <CaptureFilters query={query} />
+      {!parsed.success ? <p className="mb-3 text-sm text-outside-700">The filter in the address was not understood; showing every capture.</p> : null}
+      {view.rows.length === 0 ? (
+        <EmptyState title={filtered ? "No captures match" : "No captures yet"}>{filtered ? <Link href="/captures">Clear the filters</Link> : null}</EmptyState>
+      ) : (
+        <CaptureListTable rows={view.rows} query={query} link={link} />
       )}
+      <div className="mt-4 flex gap-4 text-sm">
+        {view.page > 1 ? <Link href={link({ page: view.page - 1 })}>← Previous</Link> : null}
+        {view.hasMore ? <Link href={link({ page: view.page + 1 })}>Next →</Link> : null}
+        {view.page > 1 || view.hasMore ? <span className="text-ink-600">Page {view.page}</span> : null}
+      </div>
     </>
   );
 }

@@ -1,0 +1,55 @@
+import { and, asc, desc, eq, ilike, sql, type SQL } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { analyses, captures, units, type CaptureState } from "@/db/schema";
+import { unitScopeWhere, type Scope } from "./scope";
+
+export const CAPTURE_SORTS = ["captured", "frequency", "thd", "vuf", "ke"] as const;
+export type CaptureSort = (typeof CAPTURE_SORTS)[number];
+
+export type CaptureListFilter = {
+  search?: string;
+  state?: CaptureState;
+  /** A verdict of the current analysis, or "unjudged" for captures without one. */
+  overall?: "pass" | "marginal" | "fail" | "not-applicable" | "unjudged";
+  testKind?: "no-load" | "load" | "back-emf" | "other";
+  sort: CaptureSort;
+  dir: "asc" | "desc";
+  limit: number;
+  offset: number;
+};
+
+const SORT_COLUMNS = {
+  captured: captures.createdAt,
+  frequency: analyses.frequencyHz,
+  thd: analyses.worstThdPercent,
+  vuf: analyses.vufPercent,
+  ke: analyses.keLineRmsPerKrpm,
+} as const;
+
+/** One page of the captures the scope may see, with the headline numbers of each current analysis. */
+export async function listCapturePage(scope: Scope, filter: CaptureListFilter) {
+  const where: SQL[] = [unitScopeWhere(scope)];
+  if (filter.search) where.push(ilike(units.serial, `%${filter.search.replace(/[%_\\]/g, "\\$&")}%`));
+  if (filter.state) where.push(eq(captures.state, filter.state));
+  if (filter.testKind) where.push(eq(captures.testKind, filter.testKind));
+  if (filter.overall === "unjudged") where.push(sql`${analyses.overall} is null`);
+  else if (filter.overall) where.push(eq(analyses.overall, filter.overall));
+  const column = SORT_COLUMNS[filter.sort];
+  // Captures without the figure (not analysed, or no such metric) go last either way.
+  const order = filter.dir === "asc" ? sql`${column} asc nulls last` : sql`${column} desc nulls last`;
+  return getDb()
+    .select({
+      id: captures.id, serial: units.serial, unitId: units.id, testKind: captures.testKind, state: captures.state,
+      stateMessage: captures.stateMessage, progress: captures.progress, originalName: captures.originalName,
+      speedRpm: captures.speedRpm, createdAt: captures.createdAt, overall: analyses.overall,
+      frequencyHz: analyses.frequencyHz, worstThdPercent: analyses.worstThdPercent, vufPercent: analyses.vufPercent,
+      keLineRmsPerKrpm: analyses.keLineRmsPerKrpm,
+    })
+    .from(captures)
+    .innerJoin(units, eq(units.id, captures.unitId))
+    .leftJoin(analyses, and(eq(analyses.captureId, captures.id), eq(analyses.current, true)))
+    .where(and(...where))
+    .orderBy(order, desc(captures.createdAt), asc(captures.id))
+    .limit(filter.limit)
+    .offset(filter.offset);
+}
