@@ -1,10 +1,8 @@
 import { and, asc, desc, eq, ilike, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, captures, units, type CaptureState } from "@/db/schema";
+import type { CaptureSort } from "@/lib/captures/list-query";
 import { unitScopeWhere, type Scope } from "./scope";
-
-export const CAPTURE_SORTS = ["captured", "frequency", "thd", "vuf", "ke"] as const;
-export type CaptureSort = (typeof CAPTURE_SORTS)[number];
 
 export type CaptureListFilter = {
   search?: string;

@@ -1,6 +1,8 @@
 import { z } from "zod";
 import { analysisReportSchema } from "@/lib/analysis";
-import { captureRegistrationSchema, completeUploadSchema, presignPartsSchema } from "./input-schemas";
+import { captureState } from "@/db/schema";
+import { captureRegistrationSchema, completeUploadSchema, presignPartsSchema, TEST_KINDS } from "./input-schemas";
+import { CAPTURE_SORTS, CAPTURE_VERDICT_FILTERS } from "./list-query";
 
 // The bench API's OpenAPI 3.1 document, built from the same zod schemas the handlers parse with.
 
@@ -10,6 +12,17 @@ const errors = (...codes: number[]) => Object.fromEntries(codes.map((c) => [Stri
 const idParam = { name: "id", in: "path", required: true, schema: { type: "string", format: "uuid" } };
 const body = (ref: string) => ({ required: true, content: { "application/json": { schema: { $ref: `#/components/schemas/${ref}` } } } });
 const ok = (description: string, ref: string) => ({ description, content: { "application/json": { schema: { $ref: `#/components/schemas/${ref}` } } } });
+
+const query = (name: string, description: string, schema: Record<string, unknown>) => ({ name, in: "query", required: false, description, schema });
+const listParameters = [
+  query("q", "serial number contains (case-insensitive)", { type: "string", maxLength: 64 }),
+  query("state", "capture state", { enum: captureState.enumValues }),
+  query("overall", "verdict of the current analysis; unjudged = no analysis yet", { enum: CAPTURE_VERDICT_FILTERS }),
+  query("kind", "test kind", { enum: TEST_KINDS }),
+  query("sort", "captured time or a figure of the current analysis (captures without it come last)", { enum: CAPTURE_SORTS, default: "captured" }),
+  query("dir", "sort direction", { enum: ["asc", "desc"], default: "desc" }),
+  query("page", "50 captures a page", { type: "integer", minimum: 1, default: 1 }),
+];
 
 const captureStatus = {
   type: "object",
@@ -50,6 +63,11 @@ export function buildOpenApiDocument(serverUrl: string) {
     security: [{ stationKey: [] }],
     paths: {
       "/api/v1/captures": {
+        get: {
+          summary: "One page of the lab's captures, filtered and sorted",
+          parameters: listParameters,
+          responses: { "200": { description: "`{ captures: [...], page, hasMore }`; each capture with its state, verdict and headline figures" }, ...errors(400, 401) },
+        },
         post: {
           summary: "Register a capture and receive upload URL(s)",
           description: "Same sha256 for the same unit returns the existing capture (200, duplicate: true) instead of a new one. Files above 32 MiB get a multipart plan.",

@@ -4,7 +4,7 @@ import { closeDb, getDb } from "@/db/client";
 import { listCapturePage, type CaptureListFilter } from "@/db/queries/capture-list";
 import { insertUnitOnce } from "@/db/queries/units";
 import { analyses, captures, ratings, type CaptureState } from "@/db/schema";
-import { captureListQuerySchema } from "@/lib/dal/capture-list";
+import { captureListQuerySchema } from "@/lib/captures/list-query";
 import { seededOrgs } from "./helpers";
 
 // Captures inserted straight into the tables: the list must filter and sort on the stored columns.

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getCaptureDetail } from "@/db/queries/captures";
 import { findStationKeyByPrefix, revokeStationKey } from "@/db/queries/station-keys";
 import { GET as getCaptureRoute } from "@/app/api/v1/captures/[id]/route";
-import { POST as registerRoute } from "@/app/api/v1/captures/route";
+import { GET as listRoute, POST as registerRoute } from "@/app/api/v1/captures/route";
 import { GET as getUnitRoute } from "@/app/api/v1/units/[serial]/route";
 import { actorForUser } from "@/lib/dal/actor";
 import { getCaptureStatusView } from "@/lib/dal/captures";
@@ -79,6 +79,18 @@ describe("authorization across organisations", () => {
     expect(unit.status).toBe(404);
     const register = await registerViaApi(otherKey, "a,b\n1,2\n", { unitSerial: "KG45-260309" });
     expect(register.status).toBe(422);
+    // The list: this lab's key finds the capture by serial; the other lab's key sees none of it.
+    const listed = (await (await listRoute(new Request("http://test/api/v1/captures?q=KG45-260309", { headers: { Authorization: `Bearer ${token}` } }))).json()) as { captures: { id: string }[] };
+    expect(listed.captures.map((c) => c.id)).toContain(id);
+    const foreign = await listRoute(new Request("http://test/api/v1/captures?q=KG45", { headers: { Authorization: `Bearer ${otherKey}` } }));
+    expect(((await foreign.json()) as { captures: unknown[] }).captures).toEqual([]);
+  });
+
+  it("GET /api/v1/captures names a bad query parameter (400) and needs a key (401)", async () => {
+    const bad = await listRoute(new Request("http://test/api/v1/captures?sort=price", { headers: { Authorization: `Bearer ${token}` } }));
+    expect(bad.status).toBe(400);
+    expect(((await bad.json()) as { error: string }).error).toMatch(/^sort/);
+    expect((await listRoute(new Request("http://test/api/v1/captures"))).status).toBe(401);
   });
 
   it("a revoked or malformed station key is refused with 401", async () => {

@@ -2,7 +2,8 @@ import { errorResponse } from "@/lib/auth/guards";
 import { captureRegistrationSchema } from "@/lib/captures/input-schemas";
 import { requireSessionActor } from "@/lib/dal/actor";
 import { registerCapture } from "@/lib/dal/capture-intake";
-import { captureListQuerySchema, getCaptureListView } from "@/lib/dal/capture-list";
+import { captureListQuerySchema } from "@/lib/captures/list-query";
+import { getCaptureListView } from "@/lib/dal/capture-list";
 import { parseInput, readJson } from "@/lib/dal/request";
 
 /** Registers a capture from the upload form; answers with presigned upload URL(s). */

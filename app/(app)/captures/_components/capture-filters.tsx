@@ -1,5 +1,5 @@
 import { TEST_KIND_LABELS, TEST_KINDS } from "@/lib/captures/input-schemas";
-import type { CaptureListQuery } from "@/lib/dal/capture-list";
+import type { CaptureListQuery } from "@/lib/captures/list-query";
 
 const STATES = [["uploading", "Uploading"], ["queued", "Queued"], ["analysing", "Analysing"], ["analysed", "Analysed"], ["rejected", "Rejected"], ["failed", "Failed"]] as const;
 const VERDICTS = [["fail", "Outside"], ["marginal", "Near edge"], ["pass", "Within"], ["not-applicable", "Not judged"], ["unjudged", "No result yet"]] as const;

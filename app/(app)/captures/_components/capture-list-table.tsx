@@ -2,9 +2,9 @@ import Link from "next/link";
 import { CaptureStateBadge } from "@/components/captures/capture-state-badge";
 import { fmt, fmtFixed } from "@/components/captures/format";
 import { StatusTag } from "@/components/ui/status-tag";
-import type { CaptureSort } from "@/db/queries/capture-list";
 import { TEST_KIND_LABELS } from "@/lib/captures/input-schemas";
-import type { CaptureListQuery, getCaptureListView } from "@/lib/dal/capture-list";
+import type { CaptureListQuery, CaptureSort } from "@/lib/captures/list-query";
+import type { getCaptureListView } from "@/lib/dal/capture-list";
 
 type Rows = Awaited<ReturnType<typeof getCaptureListView>>["rows"];
 export type ListLink = (overrides: Partial<Record<keyof CaptureListQuery, string | number | undefined>>) => string;

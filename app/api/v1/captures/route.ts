@@ -1,8 +1,10 @@
 import { errorResponse } from "@/lib/auth/guards";
 import { captureRegistrationSchema } from "@/lib/captures/input-schemas";
+import { captureListQuerySchema } from "@/lib/captures/list-query";
 import { requireStationActor } from "@/lib/dal/actor";
 import { registerCapture } from "@/lib/dal/capture-intake";
-import { readJson } from "@/lib/dal/request";
+import { getCaptureListView } from "@/lib/dal/capture-list";
+import { parseInput, readJson } from "@/lib/dal/request";
 
 /** Bench API: registers a capture for the key's lab and bench; answers with presigned upload URL(s). */
 export async function POST(request: Request) {
@@ -11,6 +13,18 @@ export async function POST(request: Request) {
     const input = await readJson(request, captureRegistrationSchema);
     const result = await registerCapture(actor, input);
     return Response.json(result, { status: result.duplicate ? 200 : 201 });
+  } catch (err) {
+    return errorResponse(err);
+  }
+}
+
+/** Bench API: one page of the lab's captures, filtered and sorted like the captures page. */
+export async function GET(request: Request) {
+  try {
+    const actor = await requireStationActor(request);
+    const query = parseInput(captureListQuerySchema, Object.fromEntries(new URL(request.url).searchParams));
+    const view = await getCaptureListView(actor, query);
+    return Response.json({ captures: view.rows, page: view.page, hasMore: view.hasMore }, { headers: { "Cache-Control": "no-store" } });
   } catch (err) {
     return errorResponse(err);
   }
