@@ -44,11 +44,17 @@ export function createAttachmentRouter(deps: { currentUser: () => Promise<Sessio
         return { unitId: unit.id, kind: input.kind, caption: input.caption, uploadedById: user.id };
       })
       .onUploadComplete(async ({ metadata, file }) => {
-        const row = await insertAttachmentOnce({
-          unitId: metadata.unitId, kind: metadata.kind, caption: metadata.caption, originalName: file.name,
-          contentType: file.type, sizeBytes: file.size, fileKey: file.key, fileHash: file.fileHash, uploadedById: metadata.uploadedById,
-        });
-        return { attachmentId: row.id };
+        try {
+          const row = await insertAttachmentOnce({
+            unitId: metadata.unitId, kind: metadata.kind, caption: metadata.caption, originalName: file.name,
+            contentType: file.type, sizeBytes: file.size, fileKey: file.key, fileHash: file.fileHash, uploadedById: metadata.uploadedById,
+          });
+          return { attachmentId: row.id };
+        } catch (err) {
+          // The SDK swallows this at debug level; the stored file then has no row.
+          console.error(`attachment upload: recording stored file ${file.key} for unit ${metadata.unitId} failed:`, err);
+          throw err;
+        }
       }),
   } satisfies FileRouter;
 }

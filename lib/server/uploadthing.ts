@@ -27,6 +27,8 @@ export function uploadRouteConfig() {
     ingestUrl: env.UPLOADTHING_INGEST_URL,
     callbackUrl: env.UPLOADTHING_CALLBACK_URL ?? new URL("/api/uploadthing", env.NEXTAUTH_URL).toString(),
     isDev: env.NODE_ENV === "development",
+    // At info level the SDK logs every presigned URL, signature included.
+    logLevel: "Warning" as const,
   };
 }
 
