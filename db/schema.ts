@@ -174,6 +174,11 @@ export const analyses = pgTable(
   (t) => [
     index("analyses_capture_idx").on(t.captureId, t.createdAt),
     uniqueIndex("analyses_capture_current_idx").on(t.captureId).where(sql`${t.current}`),
+    // The captures list sorts current results worst first on these figures.
+    index("analyses_current_thd_idx").on(t.worstThdPercent.desc().nullsLast()).where(sql`${t.current}`),
+    index("analyses_current_vuf_idx").on(t.vufPercent.desc().nullsLast()).where(sql`${t.current}`),
+    index("analyses_current_ke_idx").on(t.keLineRmsPerKrpm.desc().nullsLast()).where(sql`${t.current}`),
+    index("analyses_current_frequency_idx").on(t.frequencyHz.desc().nullsLast()).where(sql`${t.current}`),
   ],
 );
 
