@@ -74,6 +74,9 @@ test("an operator attaches a PNG, a client of the unit's organisation reads it, 
   await remove.click();
   await attached(page).getByRole("button", { name: `Remove “${NAME}”` }).click();
   await expect(attached(page)).toHaveCount(0);
+  const removal = page.getByRole("listitem").filter({ hasText: `Removed attachment “${NAME}”` });
+  await expect(removal).toContainText("Ines Vardy removed an attachment");
+  await expect(removal).not.toContainText("changed the disposition");
   await expect(page.getByText(`Removed attachment “${NAME}” (nameplate, ${png.length} bytes): Frame plate, drive end`)).toBeVisible();
   expect((await page.request.get(href)).status()).toBe(404);
 });

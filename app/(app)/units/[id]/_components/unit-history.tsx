@@ -6,7 +6,11 @@ export function UnitHistory({ events }: { events: Event[] }) {
     <ol className="space-y-3 text-sm">
       {events.map((e) => (
         <li key={e.id} className="border-l-2 border-copper-400 pl-3">
-          <p><span className="font-semibold">{e.actor}</span> changed the disposition from <em>{e.from}</em> to <em>{e.to}</em></p>
+          {e.kind === "disposition" ? (
+            <p><span className="font-semibold">{e.actor}</span> changed the disposition from <em>{e.from}</em> to <em>{e.to}</em></p>
+          ) : (
+            <p><span className="font-semibold">{e.actor}</span> {e.kind === "attachment-removed" ? "removed an attachment" : e.kind}</p>
+          )}
           <p className="text-xs text-ink-600">{e.at.toISOString().replace("T", " ").slice(0, 16)} UTC</p>
           {e.comment ? <p className="mt-1 whitespace-pre-wrap">{e.comment}</p> : null}
         </li>
