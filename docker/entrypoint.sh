@@ -18,6 +18,8 @@ fi
 : "${NEXTAUTH_SECRET:=$(read_secret emfolio_nextauth_secret)}"
 : "${S3_ACCESS_KEY_ID:=$(read_secret emfolio_s3_access_key)}"
 : "${S3_SECRET_ACCESS_KEY:=$(read_secret emfolio_s3_secret_key)}"
-export NEXTAUTH_SECRET S3_ACCESS_KEY_ID S3_SECRET_ACCESS_KEY
+# Optional: without it the attachments panel says which variable is missing.
+: "${UPLOADTHING_TOKEN:=$(read_secret emfolio_uploadthing_token)}"
+export NEXTAUTH_SECRET S3_ACCESS_KEY_ID S3_SECRET_ACCESS_KEY UPLOADTHING_TOKEN
 
 exec "$@"
