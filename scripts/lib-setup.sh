@@ -70,3 +70,23 @@ wait_for_web() {
   echo "the web app at $1 did not answer within 60 s (see .data/log/)" >&2
   return 1
 }
+
+# start_services_tracked: starts every local service and sets SERVICES_STARTED_HERE to those that
+# were not already running, so the caller can stop just those (stop_services_started_here).
+SERVICE_NAMES=(postgres redis s3 smtp uploadthing)
+SERVICES_STARTED_HERE=()
+start_services_tracked() {
+  local already_up=() name
+  for name in "${SERVICE_NAMES[@]}"; do
+    if bash scripts/services.sh status "$name" >/dev/null 2>&1; then already_up+=("$name"); fi
+  done
+  bash scripts/services.sh start "$@"
+  SERVICES_STARTED_HERE=()
+  for name in "${SERVICE_NAMES[@]}"; do
+    [[ " ${already_up[*]} " == *" $name "* ]] || SERVICES_STARTED_HERE+=("$name")
+  done
+}
+
+stop_services_started_here() {
+  if ((${#SERVICES_STARTED_HERE[@]} > 0)); then bash scripts/services.sh stop "${SERVICES_STARTED_HERE[@]}" >/dev/null 2>&1 || true; fi
+}

@@ -13,21 +13,13 @@ bash scripts/services/ensure-packages.sh
 ensure_node_modules
 
 step "local services"
-already_up=()
-for name in postgres redis s3 smtp uploadthing; do
-  if bash scripts/services.sh status "$name" >/dev/null 2>&1; then already_up+=("$name"); fi
-done
-bash scripts/services.sh start
-started_here=()
-for name in postgres redis s3 smtp uploadthing; do
-  [[ " ${already_up[*]} " == *" $name "* ]] || started_here+=("$name")
-done
+start_services_tracked
 
 pids=()
 cleanup() {
   for pid in "${pids[@]}"; do kill -TERM "$pid" 2>/dev/null || true; done
   for pid in "${pids[@]}"; do wait "$pid" 2>/dev/null || true; done
-  if ((${#started_here[@]} > 0)); then bash scripts/services.sh stop "${started_here[@]}" >/dev/null 2>&1 || true; fi
+  stop_services_started_here
 }
 trap cleanup EXIT
 

@@ -63,7 +63,14 @@ async function upload(token: string, file: string, size: number): Promise<string
   const plan = await benchApi<Plan>(BASE, "/api/v1/captures", token, {
     unitSerial: args.serial, testKind: "no-load", speedRpm: 1500, fileName: path.basename(file), sizeBytes: size, sha256: await sha256Of(file),
   });
-  if (plan.upload?.kind !== "multipart") throw new Error(plan.upload ? "expected a multipart plan" : "this file is stored already: delete .data/bench and the test database's capture");
+  if (!plan.upload) throw new Error("this file is stored already: the bench resets its database first, so delete .data/bench and retry");
+  if (plan.upload.kind === "single") {
+    // Below the multipart threshold (a quick run with a small --mib): one PUT.
+    const res = await fetch(plan.upload.url, { method: "PUT", headers: plan.upload.headers, body: readSlice(file, 0, size) });
+    if (!res.ok) throw new Error(`PUT: ${res.status}`);
+    await benchApi(BASE, `/api/v1/captures/${plan.capture.id}/complete`, token, {});
+    return plan.capture.id;
+  }
   const { partSize, parts } = plan.upload;
   const etags: { partNumber: number; etag: string }[] = [];
   let next = 0;

@@ -9,7 +9,7 @@ set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/../lib-setup.sh"
 
 PORT="${EMFOLIO_BENCH_PORT:-3150}"
-bash scripts/services.sh start >/dev/null
+start_services_tracked >/dev/null
 mkdir -p .data/log
 write_test_env "$PORT" emfolio-bench .data/env.bench
 load_env_file .data/env.bench
@@ -17,10 +17,12 @@ node_modules/.bin/tsx scripts/reset-test-db.ts >/dev/null
 node_modules/.bin/tsx scripts/migrate.ts >/dev/null
 node_modules/.bin/tsx scripts/seed.ts >/dev/null
 export EMFOLIO_DIST_DIR=.next-test
-[[ -f .next-test/BUILD_ID ]] || node_modules/.bin/next build >.data/log/bench-build.log 2>&1
+# Always rebuilt, so the figures are of the code checked out (the test command shares this folder).
+echo "building the app (log: .data/log/bench-build.log)"
+node_modules/.bin/next build >.data/log/bench-build.log 2>&1 || { tail -20 .data/log/bench-build.log; exit 1; }
 node_modules/.bin/next start -H 127.0.0.1 -p "$PORT" >.data/log/bench-web.log 2>&1 &
 web=$!
-trap 'kill -TERM "$web" 2>/dev/null || true; wait "$web" 2>/dev/null || true' EXIT
+trap 'kill -TERM "$web" 2>/dev/null || true; wait "$web" 2>/dev/null || true; stop_services_started_here' EXIT
 wait_for_web "http://127.0.0.1:$PORT"
 args=("$@")
 ((${#args[@]} > 0)) || args=(--captures 200 --rows 100000 --workers 1,2)
