@@ -1,5 +1,5 @@
 import type { ReactNode } from "react";
-import { ATTACHMENT_KIND_LABELS, formatBytes, isImageType } from "@/lib/attachments/rules";
+import { ATTACHMENT_KIND_LABELS, downloadNameFor, formatBytes, isImageType } from "@/lib/attachments/rules";
 
 export type AttachmentRow = {
   id: string; kind: keyof typeof ATTACHMENT_KIND_LABELS; caption: string; originalName: string;
@@ -34,7 +34,7 @@ export function AttachmentList({ rows, actions }: { rows: AttachmentRow[]; actio
             {row.caption ? <p className="mt-1 text-ink-800">{row.caption}</p> : null}
           </div>
           <div className="flex shrink-0 items-center gap-2">
-            <a href={`/api/attachments/${row.id}`} download={row.originalName} className="rounded-md bg-white px-3 py-1.5 text-xs font-semibold no-underline ring-1 ring-ink-200 hover:bg-ink-100">
+            <a href={`/api/attachments/${row.id}`} download={downloadNameFor(row.originalName, row.contentType)} className="rounded-md bg-white px-3 py-1.5 text-xs font-semibold no-underline ring-1 ring-ink-200 hover:bg-ink-100">
               Download<span className="sr-only"> {row.originalName}</span>
             </a>
             {actions?.(row)}

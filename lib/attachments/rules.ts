@@ -41,13 +41,27 @@ const EXTENSION_TYPES: Record<string, AttachmentContentType> = {
   png: "image/png", jpg: "image/jpeg", jpeg: "image/jpeg", webp: "image/webp", pdf: "application/pdf",
 };
 
-/** The accepted type of a file: its browser-reported type, or its extension when the browser gave none. */
+const extensionOf = (name: string) => /\.([a-z0-9]+)$/i.exec(name)?.[1]?.toLowerCase() ?? "";
+
+/**
+ * The accepted type of a file: its extension must be one of ours, and a type the browser reports
+ * must agree with it (a "photo" named report.html or setup.exe is refused whatever it claims).
+ */
 export function attachmentTypeOf(file: { name: string; type: string }): AttachmentContentType | null {
-  const type = file.type.toLowerCase();
-  if (type in ATTACHMENT_TYPES) return type as AttachmentContentType;
-  if (type !== "") return null;
-  const ext = /\.([a-z0-9]+)$/i.exec(file.name)?.[1]?.toLowerCase() ?? "";
-  return EXTENSION_TYPES[ext] ?? null;
+  const byExtension = Object.hasOwn(EXTENSION_TYPES, extensionOf(file.name)) ? EXTENSION_TYPES[extensionOf(file.name)] : undefined;
+  if (!byExtension) return null;
+  const reported = file.type.toLowerCase();
+  if (reported === "") return byExtension;
+  return Object.hasOwn(ATTACHMENT_TYPES, reported) && reported === byExtension ? byExtension : null;
+}
+
+/** The name a download is saved under: the original one, with the stored type's extension added when it lacks it. */
+export function downloadNameFor(originalName: string, contentType: string): string {
+  const ext = extensionOf(originalName);
+  const fits = Object.hasOwn(EXTENSION_TYPES, ext) && EXTENSION_TYPES[ext] === contentType;
+  if (fits) return originalName;
+  const canonical = Object.entries(EXTENSION_TYPES).find(([, type]) => type === contentType)?.[0] ?? "bin";
+  return `${originalName}.${canonical}`;
 }
 
 export function formatBytes(bytes: number): string {
@@ -77,4 +91,6 @@ export function checkAttachmentFiles(files: readonly { name: string; type: strin
   return problems;
 }
 
-export const isImageType = (contentType: string) => contentType.startsWith("image/");
+const INLINE_IMAGE_TYPES: readonly string[] = ["image/png", "image/jpeg", "image/webp"];
+/** Only these are ever shown in the page (thumbnails); everything else downloads. */
+export const isImageType = (contentType: string) => INLINE_IMAGE_TYPES.includes(contentType);

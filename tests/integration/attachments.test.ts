@@ -12,6 +12,8 @@ import { makePng } from "@/tests/fixtures/attachments/make-png";
 import { seededOrgs } from "./helpers";
 import { sessionUser, putFile, requestUpload, startUploadRoute, uploadPng, type UploadRoute } from "./attachments-support";
 import { createOtherLab } from "./pipeline-support";
+import { POST as uploadthingPost } from "@/app/api/uploadthing/route";
+import { NextRequest } from "next/server";
 
 // Against the uploadthing fake the test command starts: uploadthing's server SDK (route handler and
 // UTApi) with the app's file router, the fake's signature checks, and scope on every read.
@@ -103,6 +105,18 @@ describe("uploading through uploadthing's route handler to the fake", () => {
       body: JSON.stringify({ status: "uploaded", origin: "http://127.0.0.1:1", metadata: { unitId }, file: {} }),
     });
     expect(forged.status).toBe(400);
+  });
+});
+
+describe("POST /api/uploadthing", () => {
+  it("refuses a body over 64 KiB with 413 before uploadthing's handler reads it, declared or not", async () => {
+    const big = JSON.stringify({ files: [{ name: "x".repeat(70 * 1024), size: 1, type: "image/png" }] });
+    const url = "http://127.0.0.1/api/uploadthing?actionType=upload&slug=unitAttachment";
+    const declared = await uploadthingPost(new NextRequest(url, { method: "POST", headers: { "content-type": "application/json" }, body: big }));
+    expect(declared.status).toBe(413);
+    const stream = new ReadableStream<Uint8Array>({ start: (c) => { c.enqueue(new TextEncoder().encode(big)); c.close(); } });
+    const undeclared = await uploadthingPost(new NextRequest(url, { method: "POST", headers: { "content-type": "application/json" }, body: stream, duplex: "half" } as unknown as ConstructorParameters<typeof NextRequest>[1]));
+    expect(undeclared.status).toBe(413);
   });
 });
 

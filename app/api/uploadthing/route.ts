@@ -1,5 +1,7 @@
-import type { NextRequest } from "next/server";
+import { NextRequest } from "next/server";
 import { createRouteHandler } from "uploadthing/next";
+import { errorResponse } from "@/lib/auth/guards";
+import { readBounded } from "@/lib/dal/request";
 import { uploadRouteConfig } from "@/lib/server/uploadthing";
 import { uploadRouter } from "./core";
 
@@ -8,5 +10,19 @@ import { uploadRouter } from "./core";
 let handlers: ReturnType<typeof createRouteHandler> | undefined;
 const get = () => (handlers ??= createRouteHandler({ router: uploadRouter, config: uploadRouteConfig() }));
 
+/** Upload requests (ten files' names and sizes) and callbacks are small; the SDK would read any size. */
+const MAX_BODY_BYTES = 64 * 1024;
+
 export const GET = (request: NextRequest) => get().GET(request);
-export const POST = (request: NextRequest) => get().POST(request);
+
+export async function POST(request: NextRequest) {
+  let body: string;
+  try {
+    body = await readBounded(request, MAX_BODY_BYTES);
+  } catch (err) {
+    return errorResponse(err);
+  }
+  const headers = new Headers(request.headers);
+  headers.delete("content-length");
+  return get().POST(new NextRequest(request.url, { method: "POST", headers, body }));
+}

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { attachmentKind } from "@/db/schema";
 import {
-  ATTACHMENT_KINDS, ATTACHMENT_MAX_BYTES, attachmentTypeOf, attachmentUploadInputSchema, checkAttachmentFiles, formatBytes,
+  ATTACHMENT_KINDS, ATTACHMENT_MAX_BYTES, attachmentTypeOf, attachmentUploadInputSchema, checkAttachmentFiles, downloadNameFor, formatBytes, isImageType,
 } from "@/lib/attachments/rules";
 import { uploadthingTokenSchema } from "@/lib/server/env";
 
@@ -23,11 +23,32 @@ describe("attachment rules", () => {
     expect(checkAttachmentFiles([])).toEqual(["Pick at least one file."]);
   });
 
-  it("attachmentTypeOf trusts a reported type, and the extension only when the browser reports none", () => {
+  it("attachmentTypeOf needs one of our extensions, and a reported type that agrees with it", () => {
     expect(attachmentTypeOf({ name: "x.PNG", type: "" })).toBe("image/png");
     expect(attachmentTypeOf({ name: "x.jpeg", type: "" })).toBe("image/jpeg");
+    expect(attachmentTypeOf({ name: "x.jpg", type: "image/jpeg" })).toBe("image/jpeg");
     expect(attachmentTypeOf({ name: "x.png", type: "text/html" })).toBeNull();
     expect(attachmentTypeOf({ name: "x.exe", type: "" })).toBeNull();
+    // A file that claims an accepted type under a name that would run or render when opened.
+    expect(attachmentTypeOf({ name: "report.html", type: "image/png" })).toBeNull();
+    expect(attachmentTypeOf({ name: "wiring.svg", type: "image/png" })).toBeNull();
+    expect(attachmentTypeOf({ name: "setup.exe", type: "application/pdf" })).toBeNull();
+    expect(attachmentTypeOf({ name: "plate.png", type: "application/pdf" })).toBeNull();
+    expect(attachmentTypeOf({ name: "plate", type: "image/png" })).toBeNull();
+    expect(attachmentTypeOf({ name: "x.constructor", type: "constructor" })).toBeNull();
+  });
+
+  it("downloadNameFor keeps a fitting name and adds the stored type's extension otherwise", () => {
+    expect(downloadNameFor("plate.png", "image/png")).toBe("plate.png");
+    expect(downloadNameFor("scope.JPG", "image/jpeg")).toBe("scope.JPG");
+    expect(downloadNameFor("report.html", "image/png")).toBe("report.html.png");
+    expect(downloadNameFor("cert", "application/pdf")).toBe("cert.pdf");
+  });
+
+  it("isImageType shows only PNG, JPEG and WebP in the page", () => {
+    expect(["image/png", "image/jpeg", "image/webp"].every(isImageType)).toBe(true);
+    expect(isImageType("image/svg+xml")).toBe(false);
+    expect(isImageType("application/pdf")).toBe(false);
   });
 
   it("formatBytes uses binary multiples (common practice for file sizes)", () => {

@@ -1,6 +1,6 @@
 import { errorResponse, HttpError, requireApiUser } from "@/lib/auth/guards";
 import { findAttachmentFor } from "@/lib/dal/attachments";
-import { isImageType } from "@/lib/attachments/rules";
+import { downloadNameFor, isImageType } from "@/lib/attachments/rules";
 import { fetchStoredFile } from "@/lib/server/uploadthing";
 
 export const dynamic = "force-dynamic";
@@ -28,9 +28,10 @@ export async function GET(request: Request, { params }: { params: Promise<{ id: 
       headers: {
         "content-type": attachment.contentType,
         "content-length": String(attachment.sizeBytes),
-        "content-disposition": disposition(inline ? "inline" : "attachment", attachment.originalName),
+        "content-disposition": disposition(inline ? "inline" : "attachment", downloadNameFor(attachment.originalName, attachment.contentType)),
         etag: `"${attachment.fileHash}"`,
-        "cache-control": inline ? "private, max-age=3600" : "private, no-store",
+        // Not kept: a removed attachment, or one a user may no longer read, must not come back from a cache.
+        "cache-control": "private, no-store",
         "x-content-type-options": "nosniff",
         // A file is never a page: no scripts, forms or plugins even if a browser is talked into rendering it.
         "content-security-policy": "sandbox; default-src 'none'; img-src 'self'",
