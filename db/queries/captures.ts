@@ -152,11 +152,13 @@ export async function listBenchCaptureTimes(scope: Scope, captureIds: string[]) 
 }
 
 /** Marks an upload as still going (more part URLs asked for), so the abandoned-upload sweep leaves it be. */
-export async function touchUploadingCapture(scope: Scope, captureId: string): Promise<void> {
-  await getDb()
+export async function touchUploadingCapture(scope: Scope, captureId: string): Promise<boolean> {
+  const touched = await getDb()
     .update(captures)
     .set({ updatedAt: new Date() })
-    .where(and(eq(captures.id, captureId), eq(captures.state, "uploading"), captureScopeWhere(scope)));
+    .where(and(eq(captures.id, captureId), eq(captures.state, "uploading"), captureScopeWhere(scope)))
+    .returning({ id: captures.id });
+  return touched.length > 0;
 }
 
 /**

@@ -97,6 +97,8 @@ export async function completeCaptureUpload(actor: Actor, captureId: string, inp
   if (!found) throw new HttpError(404, "No such capture");
   const { capture } = found;
   if (capture.state === "uploading") {
+    // Marks the upload active, so the abandoned-upload sweep leaves it while it is being closed.
+    if (!(await touchUploadingCapture(scope, capture.id))) throw new HttpError(404, "No such capture (an upload not completed in time is removed)");
     if (capture.multipartUploadId) {
       const expected = partCountFor(capture.sizeBytes);
       if (!input.parts || input.parts.length !== expected) throw new HttpError(400, `Send the ETag of each of the ${expected} parts`);

@@ -37,7 +37,8 @@ export const envSchema = z.object({
   MAIL_DIR: z.preprocess(blankToUndefined, z.string().optional()),
   UPLOAD_MAX_BYTES: int(2 * 1024 * 1024 * 1024),
   // An upload not completed within this many hours is abandoned: its parts and row are removed.
-  UPLOAD_ABANDON_HOURS: int(24),
+  // At least twice the 1 h life of an upload URL, so a part still in flight is never cut off.
+  UPLOAD_ABANDON_HOURS: z.preprocess(blankToUndefined, z.coerce.number().int().min(2, "must be at least 2 (upload URLs live 1 h)").default(24)),
   WORKER_CONCURRENCY: int(1),
   // How long a worker holds a job before another may take it over (stalled-job recovery), in ms.
   WORKER_LOCK_MS: int(30_000),

@@ -13,6 +13,12 @@ describe("envSchema", () => {
     expect(env.SMTP_PORT).toBe(2529);
     expect(env.QUEUE_PREFIX).toBe("emfolio");
     expect(env.UPLOAD_MAX_BYTES).toBe(2 * 1024 ** 3);
+    expect(env.UPLOAD_ABANDON_HOURS).toBe(24);
+  });
+  it("keeps UPLOAD_ABANDON_HOURS at least twice the 1 h life of an upload URL", () => {
+    expect(envSchema.parse({ ...good, UPLOAD_ABANDON_HOURS: "2" }).UPLOAD_ABANDON_HOURS).toBe(2);
+    const result = envSchema.safeParse({ ...good, UPLOAD_ABANDON_HOURS: "1" });
+    expect(result.error?.issues[0]?.message).toMatch(/at least 2/);
   });
   it("treats an empty string as missing and names the variable", () => {
     const result = envSchema.safeParse({ ...good, DATABASE_URL: "  " });
