@@ -90,3 +90,12 @@ start_services_tracked() {
 stop_services_started_here() {
   if ((${#SERVICES_STARTED_HERE[@]} > 0)); then bash scripts/services.sh stop "${SERVICES_STARTED_HERE[@]}" >/dev/null 2>&1 || true; fi
 }
+
+# ensure_port_free PORT WHAT: stops with a message when something already listens on 127.0.0.1:PORT
+# (else the checks that follow would talk to that other server, e.g. an app from another checkout).
+ensure_port_free() {
+  if (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; then
+    echo "port $1 is already in use, so $2 cannot start there: stop that program (an earlier run? 'ss -ltnp | grep :$1' names it) or choose another port" >&2
+    return 1
+  fi
+}

@@ -24,6 +24,7 @@ node_modules/.bin/next build
 mkdir -p .data/log .data/run
 
 bash scripts/down.sh --quiet
+ensure_port_free 3000 "the web app"
 node_modules/.bin/tsx worker/index.ts >>.data/log/worker.log 2>&1 &
 echo $! >.data/run/worker.pid
 step "demo captures (analysed by the worker in the background)"
