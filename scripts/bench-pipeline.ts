@@ -20,7 +20,7 @@ import { listBenchCaptureTimes } from "@/db/queries/captures";
 import { revokeStationKey } from "@/db/queries/station-keys";
 import { closeAnalysisQueue, getAnalysisQueue } from "@/lib/server/queue";
 import { makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
-import { benchApi, createBenchKey, startBenchWorker, stopBenchWorker } from "./bench/bench-client";
+import { benchApi, createBenchKey, startBenchWorker, stopAllBenchWorkers, stopBenchWorker } from "./bench/bench-client";
 import { printTable } from "./bench/table";
 
 const { values: args } = parseArgs({
@@ -105,6 +105,7 @@ try {
   console.error(`bench-pipeline: ${err instanceof Error ? err.message : String(err)}`);
   process.exitCode = 1;
 } finally {
+  await stopAllBenchWorkers();
   await closeAnalysisQueue();
   await closeDb();
 }

@@ -26,13 +26,21 @@ export async function benchApi<T>(base: string, path: string, token: string, bod
   return json;
 }
 
+const live = new Set<ChildProcess>();
+
 /** `node --import tsx worker/index.ts` with one job at a time; resolves once it says it is ready. */
 export function startBenchWorker(): Promise<ChildProcess> {
   const proc = spawn(process.execPath, ["--import", "tsx", "worker/index.ts"], { env: { ...process.env, WORKER_CONCURRENCY: "1" }, stdio: ["ignore", "pipe", "inherit"] });
+  live.add(proc);
+  proc.once("exit", () => live.delete(proc));
   return new Promise((resolve, reject) => {
     proc.stdout?.on("data", (d: Buffer) => { if (d.toString().includes("ready:")) resolve(proc); });
     proc.once("exit", (code) => reject(new Error(`worker exited (${code}) before it was ready`)));
   });
 }
 
-export const stopBenchWorker = (proc: ChildProcess) => new Promise((r) => { proc.once("exit", r); proc.kill("SIGTERM"); });
+export const stopBenchWorker = (proc: ChildProcess) =>
+  new Promise((r) => { if (proc.exitCode !== null) r(undefined); else { proc.once("exit", r); proc.kill("SIGTERM"); } });
+
+/** For a script's finally: workers a failed run left behind would keep it from exiting. */
+export const stopAllBenchWorkers = () => Promise.all([...live].map(stopBenchWorker));

@@ -17,7 +17,7 @@ import { closeDb } from "@/db/client";
 import { listBenchCaptureTimes } from "@/db/queries/captures";
 import { revokeStationKey } from "@/db/queries/station-keys";
 import { closeAnalysisQueue, getAnalysisQueue } from "@/lib/server/queue";
-import { benchApi, createBenchKey, startBenchWorker, stopBenchWorker } from "./bench-client";
+import { benchApi, createBenchKey, startBenchWorker, stopAllBenchWorkers, stopBenchWorker } from "./bench-client";
 import { ensureBenchCapture } from "./generate";
 import { printTable } from "./table";
 
@@ -145,6 +145,7 @@ try {
   console.error(`large-capture: ${err instanceof Error ? err.message : String(err)}`);
   process.exitCode = 1;
 } finally {
+  await stopAllBenchWorkers();
   await closeAnalysisQueue();
   await closeDb();
 }
