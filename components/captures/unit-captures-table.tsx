@@ -2,7 +2,7 @@ import Link from "next/link";
 import { StatusTag } from "@/components/ui/status-tag";
 import { TEST_KIND_LABELS } from "@/lib/captures/input-schemas";
 import { CaptureStateBadge } from "./capture-state-badge";
-import { fmt, fmtFixed } from "./format";
+import { CaptureFigureCells } from "./capture-figure-cells";
 import { RefreshWhileBusy } from "./refresh-while-busy";
 
 type Row = {
@@ -32,10 +32,7 @@ export function UnitCapturesTable({ rows }: { rows: Row[] }) {
               <td className="py-1.5 pr-4 font-mono"><Link href={`/captures/${r.id}`}>{r.originalName}</Link></td>
               <td className="py-1.5 pr-4" title={r.stateMessage ?? undefined}><CaptureStateBadge state={r.state} /></td>
               <td className="py-1.5 pr-4">{r.state === "analysed" ? <StatusTag status={r.overall} /> : "—"}</td>
-              <td className="py-1.5 pr-4 tabular-nums">{fmt(r.frequencyHz, 6)}</td>
-              <td className="py-1.5 pr-4 tabular-nums">{fmtFixed(r.worstThdPercent, 2)}</td>
-              <td className="py-1.5 pr-4 tabular-nums">{fmtFixed(r.vufPercent, 3)}</td>
-              <td className="py-1.5 tabular-nums">{fmt(r.keLineRmsPerKrpm)}</td>
+              <CaptureFigureCells row={r} cellClass="py-1.5 pr-4" />
             </tr>
           ))}
         </tbody>

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { CaptureStateBadge } from "@/components/captures/capture-state-badge";
-import { fmt, fmtFixed } from "@/components/captures/format";
+import { CaptureFigureCells } from "@/components/captures/capture-figure-cells";
 import { StatusTag } from "@/components/ui/status-tag";
 import { TEST_KIND_LABELS } from "@/lib/captures/input-schemas";
 import type { CaptureListQuery, CaptureSort } from "@/lib/captures/list-query";
@@ -44,10 +44,7 @@ export function CaptureListTable({ rows, query, link }: { rows: Rows; query: Cap
               <td className="px-3 py-2 font-mono"><Link href={`/captures/${r.id}`}>{r.originalName}</Link></td>
               <td className="px-3 py-2" title={r.stateMessage ?? undefined}><CaptureStateBadge state={r.state} progress={r.progress} /></td>
               <td className="px-3 py-2">{r.state === "analysed" ? <StatusTag status={r.overall} /> : "—"}</td>
-              <td className="px-3 py-2 tabular-nums">{fmt(r.frequencyHz, 6)}</td>
-              <td className="px-3 py-2 tabular-nums">{fmtFixed(r.worstThdPercent, 2)}</td>
-              <td className="px-3 py-2 tabular-nums">{fmtFixed(r.vufPercent, 3)}</td>
-              <td className="px-3 py-2 tabular-nums">{fmt(r.keLineRmsPerKrpm)}</td>
+              <CaptureFigureCells row={r} cellClass="px-3 py-2" />
             </tr>
           ))}
         </tbody>
