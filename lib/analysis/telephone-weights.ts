@@ -2,9 +2,11 @@
  * Weighting tables for telephone interference indices, kept as data.
  *
  * PSOPHOMETRIC_DB: the psophometric weighting of ITU-T Recommendation O.41 (the CCIF-1951
- * curve), relative to 800 Hz, in dB. Values are from memory of the published table and must be
- * checked against the Recommendation before a verdict relies on them [M ⚠]. IEC 60034-1 derives
- * its THF weights as λ(f) = p(f)·f/800 with p the psophometric weight as a ratio [M ⚠].
+ * curve), relative to 800 Hz, in dB, at the frequencies of the table reproduced from O.41 (1994)
+ * in TIA-470.120-C (draft 22a), Annex A, Table A.1 [S secondary]. An earlier version of this
+ * table, written from memory, had C-message-like values between 200 and 700 Hz (up to 5 dB off,
+ * where the 3rd to 13th harmonics of 50 Hz fall). The table stops at 5 kHz, where THF stops. IEC 60034-1 derives its THF weights as
+ * λ(f) = p(f)·f/800 with p the psophometric weight as a ratio [M ⚠].
  *
  * TIF_WEIGHTS: the 1960 single-frequency TIF weights (C-message weighting × 5·f; 5000 at
  * 1 kHz), as tabulated in IEEE Std 519-1992 Table 10.2 and IEEE Std 115, from memory [M ⚠].
@@ -15,12 +17,12 @@ export interface WeightPoint {
   weight: number;
 }
 
-export const PSOPHOMETRIC_SOURCE = "ITU-T O.41 psophometric weighting, values from memory [M ⚠]; THF weights λ = p·f/800 per IEC 60034-1 [M ⚠]";
+export const PSOPHOMETRIC_SOURCE = "ITU-T O.41 psophometric weighting (table as reproduced in TIA-470.120-C Annex A); THF weights λ = p·f/800 per IEC 60034-1 [M ⚠]";
 export const TIF_SOURCE = "1960 single-frequency TIF weights (IEEE Std 519-1992 Table 10.2), values from memory [M ⚠]";
 
 export const PSOPHOMETRIC_DB: readonly [number, number][] = [
-  [16.66, -85.0], [50, -63.0], [100, -41.0], [150, -33.0], [200, -27.0], [300, -16.5],
-  [400, -11.4], [500, -7.5], [600, -4.7], [700, -2.2], [800, 0.0], [900, 0.6],
+  [16.66, -85.0], [50, -63.0], [100, -41.0], [200, -21.0], [300, -10.6],
+  [400, -6.3], [500, -3.6], [600, -2.0], [700, -0.9], [800, 0.0], [900, 0.6],
   [1000, 1.0], [1200, 0.0], [1400, -0.9], [1600, -1.7], [1800, -2.4], [2000, -3.0],
   [2500, -4.2], [3000, -5.6], [3500, -8.5], [4000, -15.0], [4500, -25.0], [5000, -36.0],
 ];
