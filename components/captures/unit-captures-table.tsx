@@ -20,7 +20,7 @@ export function UnitCapturesTable({ rows }: { rows: Row[] }) {
       <table className="min-w-full text-sm" aria-label="Captures">
         <thead className="text-left text-xs uppercase tracking-wide text-ink-600">
           <tr>
-            <th className="py-1 pr-4">Captured</th><th className="py-1 pr-4">Test</th><th className="py-1 pr-4">File</th><th className="py-1 pr-4">State</th>
+            <th className="py-1 pr-4">Captured (UTC)</th><th className="py-1 pr-4">Test</th><th className="py-1 pr-4">File</th><th className="py-1 pr-4">State</th>
             <th className="py-1 pr-4">Verdict</th><th className="py-1 pr-4">f (Hz)</th><th className="py-1 pr-4">THD (%)</th><th className="py-1 pr-4">VUF (%)</th><th className="py-1">Ke (V/krpm)</th>
           </tr>
         </thead>

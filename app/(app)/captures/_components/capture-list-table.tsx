@@ -29,7 +29,7 @@ export function CaptureListTable({ rows, query, link }: { rows: Rows; query: Cap
       <table className="min-w-full text-sm" aria-label="Captures">
         <thead className="bg-ink-100 text-left text-xs uppercase tracking-wide text-ink-600">
           <tr>
-            {head("Captured", "captured")}
+            {head("Captured (UTC)", "captured")}
             <th className="px-3 py-2">Unit</th><th className="px-3 py-2">Test</th><th className="px-3 py-2">File</th>
             <th className="px-3 py-2">State</th><th className="px-3 py-2">Verdict</th>
             {head("f (Hz)", "frequency")}{head("THD (%)", "thd")}{head("VUF (%)", "vuf")}{head("Ke (V/krpm)", "ke")}
