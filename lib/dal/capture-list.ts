@@ -1,7 +1,8 @@
 import "server-only";
 import { listCapturePage } from "@/db/queries/capture-list";
-import type { CaptureListQuery } from "@/lib/captures/list-query";
+import { captureListQuerySchema, type CaptureListQuery } from "@/lib/captures/list-query";
 import type { Actor } from "./actor";
+import { parseInput } from "./request";
 
 export const CAPTURE_PAGE_SIZE = 50;
 
@@ -16,4 +17,11 @@ export async function getCaptureListView(actor: Actor, query: CaptureListQuery) 
     hasMore: rows.length > CAPTURE_PAGE_SIZE,
     page: query.page,
   };
+}
+
+/** The JSON answer of GET /api/captures and GET /api/v1/captures: the query string parsed (400 naming a bad one), one page. */
+export async function captureListResponse(actor: Actor, request: Request): Promise<Response> {
+  const query = parseInput(captureListQuerySchema, Object.fromEntries(new URL(request.url).searchParams));
+  const view = await getCaptureListView(actor, query);
+  return Response.json({ captures: view.rows, page: view.page, hasMore: view.hasMore }, { headers: { "Cache-Control": "no-store" } });
 }

@@ -2,9 +2,8 @@ import { errorResponse } from "@/lib/auth/guards";
 import { captureRegistrationSchema } from "@/lib/captures/input-schemas";
 import { requireSessionActor } from "@/lib/dal/actor";
 import { registerCapture } from "@/lib/dal/capture-intake";
-import { captureListQuerySchema } from "@/lib/captures/list-query";
-import { getCaptureListView } from "@/lib/dal/capture-list";
-import { parseInput, readJson } from "@/lib/dal/request";
+import { captureListResponse } from "@/lib/dal/capture-list";
+import { readJson } from "@/lib/dal/request";
 
 /** Registers a capture from the upload form; answers with presigned upload URL(s). */
 export async function POST(request: Request) {
@@ -21,10 +20,7 @@ export async function POST(request: Request) {
 /** One page of captures: ?q=serial&state=&overall=&kind=&sort=captured|frequency|thd|vuf|ke&dir=asc|desc&page=. */
 export async function GET(request: Request) {
   try {
-    const actor = await requireSessionActor();
-    const query = parseInput(captureListQuerySchema, Object.fromEntries(new URL(request.url).searchParams));
-    const view = await getCaptureListView(actor, query);
-    return Response.json({ captures: view.rows, page: view.page, hasMore: view.hasMore }, { headers: { "Cache-Control": "no-store" } });
+    return await captureListResponse(await requireSessionActor(), request);
   } catch (err) {
     return errorResponse(err);
   }

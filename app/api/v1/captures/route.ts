@@ -1,10 +1,9 @@
 import { errorResponse } from "@/lib/auth/guards";
 import { captureRegistrationSchema } from "@/lib/captures/input-schemas";
-import { captureListQuerySchema } from "@/lib/captures/list-query";
 import { requireStationActor } from "@/lib/dal/actor";
 import { registerCapture } from "@/lib/dal/capture-intake";
-import { getCaptureListView } from "@/lib/dal/capture-list";
-import { parseInput, readJson } from "@/lib/dal/request";
+import { captureListResponse } from "@/lib/dal/capture-list";
+import { readJson } from "@/lib/dal/request";
 
 /** Bench API: registers a capture for the key's lab and bench; answers with presigned upload URL(s). */
 export async function POST(request: Request) {
@@ -21,10 +20,7 @@ export async function POST(request: Request) {
 /** Bench API: one page of the lab's captures, filtered and sorted like the captures page. */
 export async function GET(request: Request) {
   try {
-    const actor = await requireStationActor(request);
-    const query = parseInput(captureListQuerySchema, Object.fromEntries(new URL(request.url).searchParams));
-    const view = await getCaptureListView(actor, query);
-    return Response.json({ captures: view.rows, page: view.page, hasMore: view.hasMore }, { headers: { "Cache-Control": "no-store" } });
+    return await captureListResponse(await requireStationActor(request), request);
   } catch (err) {
     return errorResponse(err);
   }
