@@ -6,7 +6,7 @@ import { getRatingForRegistration, getUnitBySerial, insertUnitOnce } from "@/db/
 import type { Capture } from "@/db/schema";
 import { CaptureRejection, sniffCaptureHeader } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
-import type { captureRegistrationSchema, completeUploadSchema, UploadPlan } from "@/lib/captures/input-schemas";
+import { captureRegistrationSchema, type completeUploadSchema, type UploadPlan } from "@/lib/captures/input-schemas";
 import { getEnv } from "@/lib/server/env";
 import { enqueueAnalysis } from "@/lib/server/queue";
 import {
@@ -16,6 +16,7 @@ import {
 import type { z } from "zod";
 import { requireUploader, type Actor } from "./actor";
 import { getCaptureStatusView, type CaptureStatusView } from "./captures";
+import { readJson } from "./request";
 
 type Registration = z.output<typeof captureRegistrationSchema>;
 type Completion = z.output<typeof completeUploadSchema>;
@@ -131,4 +132,10 @@ export async function completeCaptureUpload(actor: Actor, captureId: string, inp
   const view = await getCaptureStatusView(actor, capture.id);
   if (!view) throw new HttpError(404, "No such capture");
   return view;
+}
+
+/** The JSON answer of POST /api/captures and POST /api/v1/captures: 201 for a new capture, 200 for the one already stored. */
+export async function captureRegistrationResponse(actor: Actor, request: Request): Promise<Response> {
+  const result = await registerCapture(actor, await readJson(request, captureRegistrationSchema));
+  return Response.json(result, { status: result.duplicate ? 200 : 201 });
 }
