@@ -4,7 +4,7 @@ import {
   type AnalysisReport, type ChannelRole,
 } from "@/lib/analysis";
 import type { NewAnalysis } from "@/db/queries/analyses";
-import type { Capture, Rating } from "@/db/schema";
+import type { Capture, PlanStepRow, Rating, ToleranceProfileVersion } from "@/db/schema";
 import { getEnv } from "@/lib/server/env";
 import { sha256Hex } from "@/lib/server/hash";
 import { isPreconditionFailed, openObjectStream } from "@/lib/server/storage";
@@ -19,9 +19,13 @@ export class ConfigurationProblem extends Error {
 
 const round = (v: number) => (Number.isFinite(v) ? Number(v.toPrecision(6)) : 0);
 
-function toleranceDigest(rating: Rating): string {
-  return sha256Hex(JSON.stringify({ nameplate: rating.nameplate, tolerance: rating.tolerance }));
+/** What the verdicts depended on besides the file: nameplate, profile version and plan step. */
+export function toleranceDigest(rating: Rating, profile: ToleranceProfileVersion, step: PlanStepRow | null): string {
+  return sha256Hex(JSON.stringify({ nameplate: rating.nameplate, profile: profile.profile, step: step ? { id: step.id, checks: step.checks } : null }));
 }
+
+/** What a capture is judged against: the rating, its profile version in force and the capture's plan step. */
+export type Judgement = { rating: Rating; profile: ToleranceProfileVersion; step: PlanStepRow | null };
 
 function spectrumOf(report: AnalysisReport) {
   return {
@@ -44,14 +48,15 @@ function worstThd(report: AnalysisReport): number | null {
  * Progress runs 0–80 while reading (the parse happens as bytes arrive), then 90 once analysed.
  * Throws CaptureRejection for input the engine or the integrity check refuses.
  */
-export async function runAnalysis(capture: Capture, rating: Rating, onProgress: (percent: number) => void): Promise<NewAnalysis> {
+export async function runAnalysis(capture: Capture, judgement: Judgement, onProgress: (percent: number) => void): Promise<NewAnalysis> {
+  const { rating, step } = judgement;
   const nameplate = ratingSchema.safeParse(rating.nameplate);
-  const tolerance = toleranceProfileSchema.safeParse(rating.tolerance);
+  const tolerance = toleranceProfileSchema.safeParse(judgement.profile.profile);
   if (!nameplate.success || !tolerance.success) {
-    throw new ConfigurationProblem(`The rating ${rating.modelCode} is incomplete or invalid: fix it, then re-run the analysis`);
+    throw new ConfigurationProblem(`The rating ${rating.modelCode} or its tolerance profile is incomplete or invalid: fix it, then re-run the analysis`);
   }
-  const probeScales = capture.probeScales as Record<string, number>;
-  const calibration = Object.fromEntries(Object.entries(probeScales).map(([id, scale]) => [id, { scale }]));
+  const ids = new Set([...Object.keys(capture.probeScales), ...Object.keys(capture.channelOffsets)]);
+  const calibration = Object.fromEntries([...ids].map((id) => [id, { scale: capture.probeScales[id], offset: capture.channelOffsets[id] }]));
   const parser = createCaptureParser({ calibration, maxBytes: getEnv().UPLOAD_MAX_BYTES, expectedBytes: capture.sizeBytes });
   const hash = createHash("sha256");
   let read = 0;
@@ -76,12 +81,19 @@ export async function runAnalysis(capture: Capture, rating: Rating, onProgress: 
     );
   }
   const parsed = parser.finish();
+  const magnet = nameplate.data.magnetMaterial && capture.magnetTemperatureC !== null
+    ? { measuredC: capture.magnetTemperatureC, referenceC: nameplate.data.magnetReferenceC ?? 20, material: nameplate.data.magnetMaterial }
+    : undefined;
   const report = analyseCapture(parsed, {
     channelRoles: capture.channelRoles as Record<string, ChannelRole>,
     speedRpm: capture.speedRpm ?? undefined,
     poles: nameplate.data.poles,
+    harmonics: tolerance.data.harmonicOrder,
     rating: nameplate.data,
-    tolerance: tolerance.data,
+    profile: tolerance.data,
+    checks: step?.checks,
+    stepName: step?.name,
+    magnetTemperature: magnet,
   });
   onProgress(90);
   const envelope = computeWaveformEnvelope(parsed, PREVIEW_BUCKETS);
@@ -92,7 +104,10 @@ export async function runAnalysis(capture: Capture, rating: Rating, onProgress: 
   return {
     captureId: capture.id,
     analysisVersion: report.analysisVersion,
-    toleranceDigest: toleranceDigest(rating),
+    toleranceDigest: toleranceDigest(rating, judgement.profile, step),
+    profileVersionId: judgement.profile.id,
+    planStepId: step?.id ?? null,
+    kind: "analysis",
     report,
     overall: report.overall,
     frequencyHz: report.frequencyHz,
