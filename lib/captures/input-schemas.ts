@@ -25,6 +25,8 @@ export const captureRegistrationSchema = z.object({
   unitSerial: z.string().trim().min(1, "Give the unit's serial number").max(64).regex(/^[\w./-]+$/, "Serial numbers use letters, digits, - _ . / only"),
   /** Registers the unit with this rating when the serial is not known yet. */
   newUnitRatingId: z.uuid().optional(),
+  /** A new serial is registered only when this confirms it is not a typo of one on file. */
+  confirmNewUnit: z.boolean().optional(),
   testKind: z.enum(TEST_KINDS),
   speedRpm: z.number().positive().max(200_000).nullable().optional(),
   channelRoles: channelRolesSchema.default({}),

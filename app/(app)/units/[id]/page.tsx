@@ -4,11 +4,12 @@ import { PageHeader } from "@/components/shell/page-header";
 import { StatusTag } from "@/components/ui/status-tag";
 import { getUnitCaptureRows } from "@/lib/dal/captures";
 import { getUnitHistoryView } from "@/lib/dal/review";
-import { getUnitView } from "@/lib/dal/units";
+import { getUnitRatingChoices, getUnitView } from "@/lib/dal/units";
 import { PLAN_STATE_WORDS, PlanPanel } from "@/components/units/plan-panel";
 import { getUnitPlanView } from "@/lib/dal/unit-plan";
 import { DispositionPanel } from "./_components/disposition-panel";
 import { RecordChoice } from "./_components/record-choice";
+import { UnitAdminPanel } from "./_components/unit-admin-panel";
 import { UnitAttachments } from "./_components/unit-attachments";
 import { UnitHistory } from "./_components/unit-history";
 
@@ -18,11 +19,13 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
   // Another organisation's unit is indistinguishable from a missing one.
   if (!view) notFound();
   const { unit, rating, owner } = view;
-  const [history, captureRows, plan] = await Promise.all([getUnitHistoryView(unit.id), getUnitCaptureRows(unit.id), getUnitPlanView(unit.id)]);
+  const [history, captureRows, plan, ratingChoices] = await Promise.all([
+    getUnitHistoryView(unit.id), getUnitCaptureRows(unit.id), getUnitPlanView(unit.id), getUnitRatingChoices(),
+  ]);
   return (
     <>
       <PageHeader
-        title={`Unit ${unit.serial}`}
+        title={`Unit ${unit.serial}${unit.retiredAt ? " (retired)" : ""}`}
         lead={`${rating.modelCode} · ${rating.title} · ${owner}`}
         actions={
           <>
@@ -49,6 +52,9 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
         <UnitCapturesTable rows={captureRows} />
       </section>
       <UnitAttachments unitId={unit.id} />
+      {history.canDisposition && ratingChoices.length > 0 ? (
+        <UnitAdminPanel unitId={unit.id} serial={unit.serial} ratingId={unit.ratingId} retired={unit.retiredAt !== null} ratings={ratingChoices} />
+      ) : null}
       <section aria-labelledby="decisions" className="mt-6 grid gap-6 rounded-lg bg-white p-5 shadow-sm ring-1 ring-ink-200 md:grid-cols-2">
         <div>
           <h2 id="decisions" className="mb-3 font-semibold">Decisions</h2>
