@@ -26,7 +26,7 @@ export const captureRegistrationSchema = z.object({
   /** Registers the unit with this rating when the serial is not known yet. */
   newUnitRatingId: z.uuid().optional(),
   testKind: z.enum(TEST_KINDS),
-  speedRpm: z.number().positive().max(200_000).nullable().optional(),
+  speedRpm: z.number({ error: "Shaft speed must be a number" }).finite().min(1, "Shaft speed starts at 1 rpm").max(200_000, "Shaft speed is above 200 000 rpm").nullable().optional(),
   channelRoles: channelRolesSchema.default({}),
   probeScales: probeScalesSchema.default({}),
   stationId: z.uuid().optional(),
