@@ -31,7 +31,7 @@ export function levelWarning(code: "implausible-voltage" | "implausible-ke", wha
   return {
     code,
     level: "alert",
-    message: `${what} reads ${fmt(measured)} ${unit} against ${fmt(expected)} ${unit} rated: ${ratio === 0 ? "no signal at all, check the channel roles and probe" : likelyCause(ratio)} (more than ${factor}× off, so not judged)`,
+    message: `${what} reads ${fmt(measured)} ${unit} against ${fmt(expected)} ${unit} rated: ${ratio === 0 ? "no signal at all, check the channel roles and probe" : likelyCause(ratio)} (${factor}× or more off, so not judged)`,
     invalidates: [...IMPLAUSIBLE_LEVEL_INVALIDATES],
   };
 }
@@ -60,17 +60,4 @@ export function roleWarning(channels: readonly Pick<ChannelReport, "id" | "role"
     };
   }
   return null;
-}
-
-/**
- * The level a magnitude check uses when the voltage figure itself is missing: the mean RMS of the
- * voltage channels, compared with whichever nameplate basis (line-line or line-neutral) is nearer.
- */
-export function rawLevel(channels: readonly Pick<ChannelReport, "rms" | "unit">[], nominal: number): { level: number; nominal: number } | null {
-  const rms = channels.filter((c) => c.unit === "V").map((c) => c.rms);
-  if (rms.length === 0) return null;
-  const level = rms.reduce((s, v) => s + v, 0) / rms.length;
-  const candidates = [nominal, nominal / Math.sqrt(3)];
-  const nearest = candidates.reduce((best, c) => (Math.abs(Math.log(level / c)) < Math.abs(Math.log(level / best)) ? c : best));
-  return { level, nominal: nearest };
 }

@@ -1,6 +1,6 @@
 import { figures, type Band, type Measured } from "./figures";
 import { invalidatingReasons, JUDGEMENT_WARNING_CODES } from "./invalidation";
-import { levelWarning, rawLevel, roleWarning } from "./plausibility";
+import { levelWarning, roleWarning } from "./plausibility";
 import type { Rating } from "./rating";
 import type { Verdict, VerdictStatus } from "./report-schema";
 import { CHECK_IDS, CHECK_LABELS, describeSource, type CheckId, type ToleranceProfile } from "./tolerance";
@@ -57,8 +57,10 @@ function ratingWarnings(measured: Measured, rating: Rating, profile: TolerancePr
   const roles = roleWarning(measured.channels, rating, measured.threePhase !== null);
   if (roles) out.push(roles);
   const voltage = all.voltage;
-  const level = typeof voltage.value === "number" ? { level: voltage.value, nominal: voltage.nominal as number } : rawLevel(measured.channels, voltage.nominal as number);
-  const v = level ? levelWarning("implausible-voltage", "Voltage", level.level, level.nominal, "V", factor) : null;
+  // Without a voltage figure (roles that form no set) the mean RMS of the voltage channels stands in.
+  const rms = measured.channels.filter((c) => c.unit === "V").map((c) => c.rms);
+  const level = typeof voltage.value === "number" ? voltage.value : rms.length > 0 ? rms.reduce((a, b) => a + b, 0) / rms.length : null;
+  const v = levelWarning("implausible-voltage", "Voltage", level, voltage.nominal as number, "V", factor);
   if (v) out.push(v);
   const ke = all["back-emf-constant"];
   if (rating.ke && typeof ke.value === "number") {
