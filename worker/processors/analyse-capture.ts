@@ -5,8 +5,8 @@ import { claimCaptureForAnalysis, setCaptureProgress, setCaptureState } from "@/
 import type { Scope } from "@/db/queries/scope";
 import type { AnalysisJobData } from "@/lib/server/queue";
 import { refreshUnitPlanState } from "@/db/queries/unit-plan";
-import { ConfigurationProblem, runAnalysis } from "./run-analysis";
-import { loadJudgement } from "./judgement";
+import { ConfigurationProblem, loadJudgement } from "@/lib/server/judgement";
+import { runAnalysis } from "./run-analysis";
 
 // Runs in a sandboxed child process (see worker/index.ts), so parsing and analysis never block
 // the parent's lock renewal. The job carries ids only; everything else is read from the database.

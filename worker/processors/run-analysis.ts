@@ -4,30 +4,17 @@ import {
   type AnalysisReport, type ChannelRole,
 } from "@/lib/analysis";
 import type { NewAnalysis } from "@/db/queries/analyses";
-import type { Capture, PlanStepRow, Rating, ToleranceProfileVersion } from "@/db/schema";
+import type { Capture } from "@/db/schema";
 import { getEnv } from "@/lib/server/env";
-import { sha256Hex } from "@/lib/server/hash";
+import { ConfigurationProblem, toleranceDigest, type Judgement } from "@/lib/server/judgement";
 import { isPreconditionFailed, openObjectStream } from "@/lib/server/storage";
 
 /** Points per channel in the stored waveform preview: enough for a full-width plot, small as JSON. */
 export const PREVIEW_BUCKETS = 2000;
 
-/** A problem with the stored rating, not with the capture: retrying cannot help, but it is no rejection either. */
-export class ConfigurationProblem extends Error {
-  override name = "ConfigurationProblem";
-}
-
 const round = (v: number) => (Number.isFinite(v) ? Number(v.toPrecision(6)) : 0);
 
-/** What the verdicts depended on besides the file: nameplate, profile version and plan step. */
-export function toleranceDigest(rating: Rating, profile: ToleranceProfileVersion, step: PlanStepRow | null): string {
-  return sha256Hex(JSON.stringify({ nameplate: rating.nameplate, profile: profile.profile, step: step ? { id: step.id, checks: step.checks } : null }));
-}
-
-/** What a capture is judged against: the rating, its profile version in force and the capture's plan step. */
-export type Judgement = { rating: Rating; profile: ToleranceProfileVersion; step: PlanStepRow | null };
-
-function spectrumOf(report: AnalysisReport) {
+export function spectrumOf(report: AnalysisReport) {
   return {
     frequencyHz: report.frequencyHz,
     channels: report.channels.map((c) => ({
@@ -38,7 +25,7 @@ function spectrumOf(report: AnalysisReport) {
   };
 }
 
-function worstThd(report: AnalysisReport): number | null {
+export function worstThd(report: AnalysisReport): number | null {
   const values = report.channels.filter((c) => c.unit === "V").map((c) => c.thdFPercent).filter((v): v is number => v !== null);
   return values.length > 0 ? Math.max(...values) : null;
 }
