@@ -1,6 +1,6 @@
 import { ColumnSink, type SinkColumn } from "./column-sink";
 import { createFastBodyParser, type BodyParser } from "./fast-body-parser";
-import { probeScalesFromPreamble } from "./probe-preamble";
+import { columnProbeScales } from "./probe-preamble";
 import { createReferenceBodyParser } from "./reference-body-parser";
 import { CaptureRejection } from "./rejection";
 import { sniffLines, type CaptureLayout } from "./sniff";
@@ -97,15 +97,12 @@ export function createCaptureParser(options: ParseOptions = {}): { push(chunk: U
     const sampledRows = starts.length - 1 - layout.dataStartIndex;
     const bytesPerRow = sampledRows > 0 ? Math.max(1, (lastStart - bodyOffset) / sampledRows) : 64;
     const expectedRows = options.expectedBytes ? (options.expectedBytes - bodyOffset) / bytesPerRow : 0;
-    const stated = probeScalesFromPreamble(layout.metadata, layout.headers.map((header, index) => ({ header, kind: index === layout?.timeColumn ? "time" : (layout?.units[index]?.kind ?? "unknown") })));
+    const probes = columnProbeScales(layout, options.calibration);
+    applied.push(...probes.applied);
     const columns: SinkColumn[] = layout.headers.map((header, index) => {
-      const calibration = options.calibration?.[header];
       const unitFactor = layout?.units[index]?.factor ?? 1;
       // The caller's ratio wins; else the one the preamble states for this channel.
-      const fromFile = calibration?.scale === undefined && index !== layout?.timeColumn ? stated[header] : undefined;
-      const scale = calibration?.scale ?? fromFile?.scale;
-      if (scale !== undefined && index !== layout?.timeColumn) applied.push({ channel: header, scale, from: fromFile ? "preamble" : "caller", statement: fromFile?.statement ?? null });
-      return { header, factor: unitFactor * (scale ?? 1), offset: calibration?.offset ?? 0 };
+      return { header, factor: unitFactor * (probes.scales[index] ?? 1), offset: options.calibration?.[header]?.offset ?? 0 };
     });
     const timeFactor = layout.timeColumn !== null ? (layout.units[layout.timeColumn]?.factor ?? 1) : 1;
     sink = new ColumnSink(columns, layout.timeColumn, timeFactor, options.timeStepTolerance ?? 0.25, expectedRows * 1.02 + 1024);

@@ -1,3 +1,5 @@
+import type { AppliedProbeScale } from "./types";
+
 // Probe ratios stated in an instrument's preamble ("Probe attenuation,100X", "Probe,10:1",
 // "CH1 Probe ×100"). A channel the caller gave no ratio for takes the preamble's; the report says
 // which ratio was applied and from which line. Scopes that already scaled their export state the
@@ -65,4 +67,25 @@ export function probeScalesFromPreamble(metadata: Record<string, string>, column
     for (const c of channels) if (c.kind === "voltage" || c.kind === "unknown") global[c.header] = { scale: ratio, statement };
   }
   return { ...global, ...out };
+}
+
+/**
+ * The probe ratio of every column (undefined where none applies, and for time) and what was
+ * applied: the caller's ratio where given, else the preamble's. One rule for both parse paths.
+ */
+export function columnProbeScales(
+  layout: { metadata: Record<string, string>; headers: readonly string[]; units: readonly ({ kind: PreambleColumn["kind"] } | undefined)[]; timeColumn: number | null },
+  calibration: Record<string, { scale?: number }> | undefined,
+): { scales: (number | undefined)[]; applied: AppliedProbeScale[] } {
+  const stated = probeScalesFromPreamble(layout.metadata, layout.headers.map((header, index) => ({ header, kind: index === layout.timeColumn ? "time" : (layout.units[index]?.kind ?? "unknown") })));
+  const applied: AppliedProbeScale[] = [];
+  const scales = layout.headers.map((header, index) => {
+    if (index === layout.timeColumn) return calibration?.[header]?.scale;
+    const given = calibration?.[header]?.scale;
+    const fromFile = given === undefined ? stated[header] : undefined;
+    const scale = given ?? fromFile?.scale;
+    if (scale !== undefined) applied.push({ channel: header, scale, from: fromFile ? "preamble" : "caller", statement: fromFile?.statement ?? null });
+    return scale;
+  });
+  return { scales, applied };
 }
