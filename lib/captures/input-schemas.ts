@@ -28,7 +28,7 @@ export const captureRegistrationSchema = z.object({
   /** A new serial is registered only when this confirms it is not a typo of one on file. */
   confirmNewUnit: z.boolean().optional(),
   testKind: z.enum(TEST_KINDS),
-  speedRpm: z.number().positive().max(200_000).nullable().optional(),
+  speedRpm: z.number({ error: "Shaft speed must be a number" }).finite().min(1, "Shaft speed starts at 1 rpm").max(200_000, "Shaft speed is above 200 000 rpm").nullable().optional(),
   channelRoles: channelRolesSchema.default({}),
   probeScales: probeScalesSchema.default({}),
   stationId: z.uuid().optional(),
