@@ -43,11 +43,24 @@ export function VerdictsTable({ report }: { report: AnalysisReport }) {
   );
 }
 
+/** Capture-quality warnings as sentences; alerts (an implausible reading, roles that do not fit the rating) first and prominent. */
 export function WarningsList({ report }: { report: AnalysisReport }) {
   if (report.warnings.length === 0) return null;
+  const alerts = report.warnings.filter((w) => w.level === "alert");
+  const rest = report.warnings.filter((w) => w.level !== "alert");
   return (
-    <ul className="space-y-1 rounded-md border border-edge-700/40 bg-edge-100 px-4 py-3 text-sm" aria-label="Quality warnings">
-      {report.warnings.map((w, i) => <li key={`${w.code}-${i}`}>{w.message}</li>)}
-    </ul>
+    <>
+      {alerts.length > 0 ? (
+        <div role="alert" className="rounded-md border-2 border-outside-700 bg-outside-100 px-4 py-3 text-sm text-outside-700" aria-label="Implausible readings">
+          <p className="font-semibold">Check the set-up before relying on this capture</p>
+          <ul className="mt-1 list-disc pl-5">{alerts.map((w, i) => <li key={`${w.code}-${i}`}>{w.message}</li>)}</ul>
+        </div>
+      ) : null}
+      {rest.length > 0 ? (
+        <ul className="space-y-1 rounded-md border border-edge-700/40 bg-edge-100 px-4 py-3 text-sm" aria-label="Quality warnings">
+          {rest.map((w, i) => <li key={`${w.code}-${i}`}>{w.message}</li>)}
+        </ul>
+      ) : null}
+    </>
   );
 }
