@@ -47,3 +47,15 @@ export function setupErrorResponse(err: unknown): Response {
   console.error(err);
   return Response.json({ error: "Something went wrong on the server." }, { status: 500 });
 }
+
+/** What a set-up form shows after a refused or accepted submit (field errors keyed like the inputs' names). */
+export type SetupFormState = { ok: boolean; message: string; fieldErrors?: Record<string, string>; values?: Record<string, string> };
+
+/** A refusal as form state; anything that is not a refusal (a redirect, a crash) is thrown on. */
+export function refusedForm(err: unknown, form: FormData): SetupFormState {
+  if (!(err instanceof HttpError)) throw err;
+  const values: Record<string, string> = {};
+  for (const [k, v] of form.entries()) if (typeof v === "string" && !k.startsWith("$")) values[k] = v.slice(0, 500);
+  if (err instanceof InputError) return { ok: false, message: "Check the highlighted fields.", fieldErrors: err.fields, values };
+  return { ok: false, message: err.message, values };
+}

@@ -30,6 +30,7 @@ export function unflattenForm(entries: Entries): Tree {
     if (name.startsWith("$") || typeof value !== "string") continue;
     const parts = name.split(".");
     const leaf = parts[parts.length - 1] ?? name;
+    if (!LISTS.has(leaf) && value.trim() === "") continue;
     let node = out;
     for (const part of parts.slice(0, -1)) {
       const next = node[part];
@@ -41,7 +42,6 @@ export function unflattenForm(entries: Entries): Tree {
       node[leaf] = list;
       continue;
     }
-    if (value.trim() === "") continue;
     node[leaf] = coerce(leaf, value.trim());
   }
   return out;
