@@ -33,9 +33,11 @@ export type RatingCreateInput = z.infer<typeof ratingCreateSchema>;
 export const ratingPatchSchema = z.object(ratingFields).partial().refine((p) => Object.keys(p).length > 0, { message: "Send at least one of modelCode, title, nameplate" });
 export type RatingPatchInput = z.infer<typeof ratingPatchSchema>;
 
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
 export const ratingListQuerySchema = z.object({
-  client: z.union([z.literal(""), z.uuid("client must be a client id")]).optional().transform((v) => v || undefined),
-  kind: z.union([z.literal(""), z.enum(MACHINE_KINDS, { error: `kind must be one of ${MACHINE_KINDS.join(", ")}` })]).optional().transform((v) => v || undefined),
+  client: z.string().optional().refine((v) => !v || UUID.test(v), "client must be a client id").transform((v) => v || undefined),
+  kind: z.enum(["", ...MACHINE_KINDS], { error: `kind must be one of ${MACHINE_KINDS.join(", ")}` }).optional().transform((v) => v || undefined),
   retired: z.enum(["active", "retired", "all"], { error: "retired must be active, retired or all" }).default("active"),
 });
 export type RatingListQuery = z.infer<typeof ratingListQuerySchema>;
