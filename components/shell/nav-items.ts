@@ -10,14 +10,16 @@ const ITEMS: Record<string, NavItem> = {
   review: { href: "/review", label: "Review queue" },
   trends: { href: "/trends", label: "Trends" },
   stations: { href: "/stations", label: "Benches" },
+  ratings: { href: "/ratings", label: "Ratings" },
+  clients: { href: "/admin/clients", label: "Clients" },
   people: { href: "/admin/people", label: "People" },
   mailbox: { href: "/admin/mailbox", label: "Outbox" },
 };
 
 const BY_ROLE: Record<Role, (keyof typeof ITEMS)[]> = {
-  admin: ["home", "units", "captures", "upload", "review", "trends", "stations", "people", "mailbox"],
-  operator: ["home", "upload", "captures", "units", "stations"],
-  qa: ["home", "review", "units", "captures", "trends"],
+  admin: ["home", "units", "captures", "upload", "review", "trends", "ratings", "stations", "clients", "people", "mailbox"],
+  operator: ["home", "upload", "captures", "units", "ratings", "stations"],
+  qa: ["home", "review", "units", "captures", "trends", "ratings"],
   manufacturer: ["home", "units"],
 };
 

@@ -1,6 +1,6 @@
-import { and, asc, desc, eq, ilike, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, ilike, isNull, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { captures, organisations, ratings, units, type Unit } from "@/db/schema";
+import { captures, labClients, organisations, ratings, units, type Unit } from "@/db/schema";
 import { unitScopeWhere, type Scope } from "./scope";
 
 export type UnitListFilter = { search?: string; overall?: Unit["latestOverall"] | "untested"; includeRetired?: boolean; limit?: number; offset?: number };
@@ -60,21 +60,29 @@ export async function countUnitsByOverall(scope: Scope) {
   return counts;
 }
 
-/** Ratings a lab may register new units against: every rating on file, with its owner's name. */
+/** Ratings a lab may register new units against: its own ratings not retired, of active clients linked to it. */
 export async function listRatingsForRegistration(scope: Scope) {
   if (scope.kind !== "lab") return [];
   return getDb()
     .select({ id: ratings.id, modelCode: ratings.modelCode, title: ratings.title, owner: organisations.name })
     .from(ratings)
     .innerJoin(organisations, eq(organisations.id, ratings.organisationId))
+    .where(registrable(scope.labId))
     .orderBy(asc(organisations.name), asc(ratings.modelCode));
 }
 
 export async function getRatingForRegistration(scope: Scope, ratingId: string) {
   if (scope.kind !== "lab") return undefined;
-  const rows = await getDb().select().from(ratings).where(eq(ratings.id, ratingId)).limit(1);
-  return rows[0];
+  const rows = await getDb().select({ rating: ratings }).from(ratings)
+    .innerJoin(organisations, eq(organisations.id, ratings.organisationId))
+    .where(and(eq(ratings.id, ratingId), registrable(scope.labId))).limit(1);
+  return rows[0]?.rating;
 }
+
+const registrable = (labId: string) => and(
+  eq(ratings.labId, labId), isNull(ratings.retiredAt), isNull(organisations.deactivatedAt),
+  sql`exists (select 1 from ${labClients} where ${labClients.labId} = ${labId} and ${labClients.clientId} = ${ratings.organisationId})`,
+);
 
 /** Registers a unit in the scope's lab, owned by the rating's manufacturer; returns the existing one on a serial clash. */
 export async function insertUnitOnce(scope: Scope & { kind: "lab" }, values: { serial: string; ratingId: string; organisationId: string }): Promise<Unit> {

@@ -21,6 +21,7 @@ export const PATH_RULES: ReadonlyArray<{ prefix: string; roles: readonly Role[] 
   { prefix: "/review", roles: ["admin", "qa"] },
   { prefix: "/trends", roles: ["admin", "qa"] },
   { prefix: "/stations", roles: ["admin", "operator", "qa"] },
+  { prefix: "/ratings", roles: ["admin", "operator", "qa"] },
   { prefix: "/units", roles: ROLES },
   { prefix: "/captures", roles: ROLES },
   { prefix: "/reports", roles: ROLES },

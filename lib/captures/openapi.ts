@@ -3,6 +3,7 @@ import { analysisReportSchema } from "@/lib/analysis";
 import { captureState } from "@/db/schema";
 import { captureRegistrationSchema, completeUploadSchema, presignPartsSchema, TEST_KINDS } from "./input-schemas";
 import { CAPTURE_SORTS, CAPTURE_VERDICT_FILTERS } from "./list-query";
+import { ratingPaths, ratingSchemas, sessionScheme } from "./openapi-ratings";
 
 // The bench API's OpenAPI 3.1 document, built from the same zod schemas the handlers parse with.
 
@@ -57,7 +58,7 @@ export function buildOpenApiDocument(serverUrl: string) {
     openapi: "3.1.0",
     info: {
       title: "Emfolio bench API", version: "1",
-      description: "Upload captures from a bench PC and read their analysis. Authenticate with a station key: `Authorization: Bearer emk_<prefix>.<secret>`. See docs/bench-api.md for a complete curl session.",
+      description: "Upload captures from a bench PC and read their analysis. Authenticate with a station key: `Authorization: Bearer emk_<prefix>.<secret>`. The ratings routes also accept a signed-in session (reads with either; changes need a lab manager's or quality engineer's session). See docs/bench-api.md for a complete curl session.",
     },
     servers: [{ url: serverUrl }],
     security: [{ stationKey: [] }],
@@ -96,9 +97,10 @@ export function buildOpenApiDocument(serverUrl: string) {
           responses: { "200": { description: "The unit" }, ...errors(401, 404) },
         },
       },
+      ...ratingPaths,
     },
     components: {
-      securitySchemes: { stationKey: { type: "http", scheme: "bearer", description: "A station key created by a lab manager on the Benches page" } },
+      securitySchemes: { stationKey: { type: "http", scheme: "bearer", description: "A station key created by a lab manager on the Benches page" }, session: sessionScheme },
       schemas: {
         Error: { type: "object", required: ["error"], properties: { error: { type: "string" } } },
         CaptureRegistration: json(captureRegistrationSchema),
@@ -117,6 +119,7 @@ export function buildOpenApiDocument(serverUrl: string) {
           },
         },
         AnalysisReport: json(analysisReportSchema),
+        ...ratingSchemas,
       },
     },
   };
