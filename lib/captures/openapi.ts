@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { analysisReportSchema } from "@/lib/analysis";
 import { captureState } from "@/db/schema";
-import { captureRegistrationSchema, completeUploadSchema, presignPartsSchema, TEST_KINDS } from "./input-schemas";
+import { captureCorrectionSchema, captureRegistrationSchema, completeUploadSchema, presignPartsSchema, TEST_KINDS } from "./input-schemas";
 import { CAPTURE_SORTS, CAPTURE_VERDICT_FILTERS } from "./list-query";
 import { ratingPaths, ratingSchemas, sessionScheme } from "./openapi-ratings";
 
@@ -89,6 +89,11 @@ export function buildOpenApiDocument(serverUrl: string) {
       },
       "/api/v1/captures/{id}": {
         get: { summary: "State, progress and (once analysed) the report", parameters: [idParam], responses: { "200": ok("The capture", "CaptureStatus"), ...errors(401, 404) } },
+        patch: {
+          summary: "Correct the capture's settings (channel roles, probe ratios, offsets, speed, test kind, plan step) with a reason; it is analysed again and the earlier result kept",
+          parameters: [idParam], requestBody: body("CaptureCorrection"),
+          responses: { "202": ok("The capture, queued for a new analysis", "CaptureStatus"), ...errors(400, 401, 403, 404, 409, 422) },
+        },
       },
       "/api/v1/units/{serial}": {
         get: {
@@ -104,6 +109,7 @@ export function buildOpenApiDocument(serverUrl: string) {
       schemas: {
         Error: { type: "object", required: ["error"], properties: { error: { type: "string" } } },
         CaptureRegistration: json(captureRegistrationSchema),
+        CaptureCorrection: json(captureCorrectionSchema),
         CompleteUpload: json(completeUploadSchema),
         PresignParts: json(presignPartsSchema),
         CaptureStatus: captureStatus,
