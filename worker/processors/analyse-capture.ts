@@ -60,7 +60,9 @@ export default async function analyseCaptureJob(job: SandboxedJob<AnalysisJobDat
       await db(() => setCaptureState(scope, captureId, "failed", ["analysing"], { stateMessage: err.message, progress: 0 }));
       throw new UnrecoverableError(err.message);
     }
-    log(`attempt ${job.attemptsMade + 1} failed: ${logDetail(err)}${err instanceof Error && err.stack ? `\n${err.stack}` : ""}`);
+    // First lines and the call sites only: a failed query's full text carries the whole report as parameters.
+    const where = err instanceof Error ? (err.stack ?? "").split("\n").filter((l) => l.startsWith("    at ")).slice(0, 8).join("\n") : "";
+    log(`attempt ${job.attemptsMade + 1} failed: ${logDetail(err)}${where ? `\n${where}` : ""}`);
     const attempt = job.attemptsMade + 1;
     const allowed = job.opts.attempts ?? 1;
     // An outage longer than the ride never ends a capture: it goes back to queued, and the sweep
