@@ -174,6 +174,13 @@ export async function listIdleCapturesAwaitingAnalysis(idleMs: number, limit = 5
     .limit(limit);
 }
 
+/** Captures waiting for or in analysis across every lab, counted up to `cap` (so the count stays cheap when it is huge). */
+export async function countAnalysisBacklog(cap: number): Promise<number> {
+  const rows = await getDb().execute<{ n: number }>(sql`select count(*)::int as n from (
+    select 1 from ${captures} where ${captures.state} in ('queued', 'analysing') limit ${cap}) as waiting`);
+  return Number(rows.rows[0]?.n ?? 0);
+}
+
 /**
  * Puts finished captures back in the queue for a new run (a newer engine, an edited tolerance
  * profile). Their current analysis stays until the new one replaces it; both are kept.

@@ -49,6 +49,9 @@ export const envSchema = z.object({
   WORKER_OUTAGE_WAIT_S: int(600),
   // Tries per analysis job for infrastructure errors (bad input is never retried).
   ANALYSIS_ATTEMPTS: int(5),
+  // Backpressure: the bench API answers 429 (with Retry-After) to new registrations while more
+  // captures than this wait for or are in analysis.
+  ANALYSIS_BACKLOG_LIMIT: int(2000),
   SIGN_IN_MAX_ATTEMPTS: int(8),
   SIGN_IN_WINDOW_S: int(900),
   // Attachments (uploadthing). Optional here so the worker and scripts start without them; the

@@ -110,6 +110,12 @@ export async function getAnalysisJobState(captureId: string): Promise<{ state: s
   return { state: await job.getState(), failedReason: job.failedReason };
 }
 
+/** Pings Redis over the producer's own connection (readiness); fails fast while it is down. */
+export async function pingQueue(): Promise<void> {
+  getAnalysisQueue();
+  await globalForQueue.emfolioQueueRedis?.ping();
+}
+
 export async function closeAnalysisQueue(): Promise<void> {
   const queue = globalForQueue.emfolioQueue;
   const redis = globalForQueue.emfolioQueueRedis;
