@@ -16,7 +16,7 @@ export type RideOptions = {
 
 const FIRST_DELAY_MS = 500;
 /** Long enough not to hammer a restarting service, short enough to resume within seconds. */
-export const MAX_DELAY_MS = 10_000;
+export const MAX_DELAY_MS = 5_000;
 
 /** The wait before try `n` (0-based): 0.5 s, 1 s, 2 s … capped at MAX_DELAY_MS. */
 export function rideDelayMs(n: number): number {

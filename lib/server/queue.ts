@@ -70,8 +70,11 @@ export function getAnalysisQueue(): Queue<AnalysisJobData> {
   const connection = createRedis("queue");
   connection.on("ready", () => void retryPendingEnqueues());
   globalForQueue.emfolioQueueRedis = connection;
-  globalForQueue.emfolioQueue = new Queue<AnalysisJobData>(ANALYSIS_QUEUE, { connection, prefix: getEnv().QUEUE_PREFIX });
-  return globalForQueue.emfolioQueue;
+  const queue = new Queue<AnalysisJobData>(ANALYSIS_QUEUE, { connection, prefix: getEnv().QUEUE_PREFIX });
+  // One line per problem (the connection's own listener above says which); no stack dumps in the web log.
+  queue.on("error", () => undefined);
+  globalForQueue.emfolioQueue = queue;
+  return queue;
 }
 
 /**

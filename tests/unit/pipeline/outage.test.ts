@@ -79,6 +79,7 @@ describe("rideOutages", () => {
   it("rideDelayMs() doubles from 0.5 s and stops at the cap", () => {
     expect([0, 1, 2, 3].map(rideDelayMs)).toEqual([500, 1000, 2000, 4000]);
     expect(rideDelayMs(10)).toBe(MAX_DELAY_MS);
+    expect(MAX_DELAY_MS).toBe(5_000);
     expect(rideDelayMs(1000)).toBe(MAX_DELAY_MS);
   });
 
