@@ -6,9 +6,11 @@ import type { Scope } from "@/db/queries/scope";
 import { getEnv } from "@/lib/server/env";
 import { logDetail, outageSentence, ServiceOutage, talkingTo } from "@/lib/server/outage";
 import type { AnalysisJobData } from "@/lib/server/queue";
+import { refreshUnitPlanState } from "@/db/queries/unit-plan";
+import { ConfigurationProblem, loadJudgement } from "@/lib/server/judgement";
 import { rideOutages } from "../outage-ride";
 import { failureMessage } from "./messages";
-import { ConfigurationProblem, runAnalysis } from "./run-analysis";
+import { runAnalysis } from "./run-analysis";
 
 // Runs in a sandboxed child process (see worker/index.ts), so parsing and analysis never block
 // the parent's lock renewal. The job carries ids only; everything else is read from the database,
@@ -45,9 +47,11 @@ export default async function analyseCaptureJob(job: SandboxedJob<AnalysisJobDat
   };
 
   try {
-    const analysis = await rideOutages("read and analyse", () => runAnalysis(claimed.capture, claimed.rating, onProgress), ride);
+    const judgement = await rideOutages("load the judgement", () => db(() => loadJudgement(claimed.rating, claimed.capture)), ride);
+    const analysis = await rideOutages("read and analyse", () => runAnalysis(claimed.capture, judgement, onProgress), ride);
     await pending;
     const stored = await rideOutages("store the report", () => db(() => recordAnalysis(scope, analysis)), ride);
+    if (stored) await rideOutages("refresh the unit's plan", () => db(() => refreshUnitPlanState(scope, claimed.unit.id)), ride);
     return { outcome: stored ? "analysed" : "superseded" };
   } catch (err) {
     await pending;
