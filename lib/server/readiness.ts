@@ -60,7 +60,11 @@ async function measure(): Promise<Readiness> {
   return { ready, checkedAt: new Date().toISOString(), services: Object.fromEntries(list.map((c, i) => [c.service, states[i] ?? "down"])) };
 }
 
-/** The services' states, measured at most every CACHE_MS; concurrent callers share one measurement. */
+/**
+ * The services' states, measured at most every CACHE_MS. Concurrent callers share one measurement,
+ * and once there is a result nobody waits for the next one: an expired result is answered while a
+ * fresh one is measured (so a probe's latency never includes a slow service's).
+ */
 export async function getReadiness(now = Date.now()): Promise<Readiness> {
   if (cache.value && now - cache.at < CACHE_MS) return cache.value;
   cache.running ??= measure().then((value) => {
@@ -68,5 +72,5 @@ export async function getReadiness(now = Date.now()): Promise<Readiness> {
     cache.at = Date.now();
     return value;
   }).finally(() => (cache.running = undefined));
-  return cache.running;
+  return cache.value ?? cache.running;
 }
