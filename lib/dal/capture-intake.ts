@@ -29,7 +29,7 @@ const HEADER_PROBE_BYTES = 64 * 1024;
  * completion started) within this many seconds, registering the same file again answers 409
  * "upload in progress" with Retry-After; after that the new registration takes the upload over.
  */
-export const UPLOAD_LEASE_S = 120;
+export const UPLOAD_LEASE_S = 60;
 const mib = (bytes: number) => `${(bytes / 1024 ** 2).toFixed(1)} MiB`;
 
 async function resolveUnit(scope: Actor["scope"] & { kind: "lab" }, input: Registration) {
@@ -73,23 +73,21 @@ export async function registerCapture(actor: Actor, input: Registration): Promis
     notes: input.notes, originalName: input.fileName, objectKey: captureObjectKey(scope.labId, unit.id, id),
     sizeBytes: input.sizeBytes, sha256: input.sha256,
   });
-  let upload: UploadPlan | null = null;
-  if (!duplicate) {
-    upload = await planUploadOrForget(scope, capture);
-  } else if (capture.state === "uploading") {
-    upload = await takeOverUpload(scope, capture, input.sizeBytes);
-  } else if (capture.sizeBytes !== input.sizeBytes) {
-    throw new HttpError(409, "A capture with this sha256 but another size exists for this unit");
+  if (duplicate) {
+    let upload: UploadPlan | null = null;
+    if (capture.state === "uploading") upload = await takeOverUpload(scope, capture, input.sizeBytes);
+    else if (capture.sizeBytes !== input.sizeBytes) throw new HttpError(409, "A capture with this sha256 but another size exists for this unit");
+    const view = await getCaptureStatusView(actor, capture.id);
+    if (!view) throw new Error("a capture just stored could not be read back");
+    return { capture: view, duplicate, upload };
   }
-  const view = await getCaptureStatusView(actor, capture.id);
-  if (!view) throw new Error("a capture just stored could not be read back");
-  return { capture: view, duplicate, upload };
-}
-
-/** Plans the upload of a row just inserted; when that fails, the row goes again (its id never reached the client). */
-async function planUploadOrForget(scope: Actor["scope"], capture: Capture): Promise<UploadPlan> {
+  // A row just inserted whose answer does not reach the client (the store or the database failed
+  // half-way) goes again, so the client's retry is a fresh registration, not an "upload in progress".
   try {
-    return await planUpload(scope, capture);
+    const upload = await planUpload(scope, capture);
+    const view = await getCaptureStatusView(actor, capture.id);
+    if (!view) throw new Error("a capture just stored could not be read back");
+    return { capture: view, duplicate, upload };
   } catch (err) {
     await deleteUploadingCapture(scope, capture.id).catch((e: unknown) => console.error(`could not remove half-registered capture ${capture.id}: ${String(e)}`));
     throw err;

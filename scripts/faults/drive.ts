@@ -52,9 +52,12 @@ function service(action: "start" | "stop", name: string): void {
 
 const json = (token: string, body: unknown) => ({ method: "POST", headers: { Authorization: `Bearer ${token}`, "Content-Type": "application/json" }, body: JSON.stringify(body) });
 
-/** Tries `step` until it answers (bounded: 90 tries a second apart), as a bench PC would while a service is away. */
+/**
+ * Tries `step` until it answers (bounded: 150 tries a second apart, longer than an upload's 60 s
+ * lease), as a bench PC would while a service is away.
+ */
 async function retried<T>(step: () => Promise<T>): Promise<T | null> {
-  for (let attempt = 0; attempt < 90; attempt++) {
+  for (let attempt = 0; attempt < 150; attempt++) {
     try {
       return await step();
     } catch {

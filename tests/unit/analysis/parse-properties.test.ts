@@ -70,7 +70,7 @@ describe("parseCaptureText properties", () => {
       }),
       { seed: SEED, numRuns: 150 },
     );
-  });
+  }, 30_000); // a few hundred generated files: seconds on a loaded 2-core machine
 
   it("parseCaptureText of random garbage throws nothing but a located CaptureRejection (fast-check, seeded)", () => {
     const garbage = fc.oneof(
