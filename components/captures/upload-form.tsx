@@ -5,6 +5,7 @@ import { Button } from "@/components/ui/button";
 import { Field, Select, TextArea, TextInput } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { TEST_KIND_LABELS, TEST_KINDS } from "@/lib/captures/input-schemas";
+import { similarSerials } from "@/lib/units/similar-serials";
 import { FileEntryCard } from "./file-entry-card";
 import { CaptureQueryProvider } from "./query-provider";
 import { useLeaveGuard } from "./use-leave-guard";
@@ -30,6 +31,8 @@ function UploadFormInner({ options }: { options: UploadFormOptions }) {
   const [busy, setBusy] = useState(false);
 
   const known = options.units.some((u) => u.serial === serial.trim());
+  const [confirmNew, setConfirmNew] = useState(false);
+  const close = serial.trim() && !known ? similarSerials(serial.trim(), options.units.map((u) => u.serial)) : [];
   const ready = queue.entries.filter((e) => e.phase === "ready").length;
   const sending = queue.entries.some((e) => e.phase === "hashing" || e.phase === "uploading" || e.phase === "completing");
   useLeaveGuard(sending);
@@ -45,12 +48,13 @@ function UploadFormInner({ options }: { options: UploadFormOptions }) {
     const speedRpm = speed.trim() === "" ? null : Number(speed);
     if (!serial.trim()) return setProblem("Give the unit's serial number.");
     if (!known && !ratingId) return setProblem(`${serial.trim()} is a new unit: pick its rating to register it.`);
+    if (!known && !confirmNew) return setProblem(`${serial.trim()} is not on file: confirm it is a new unit${close.length ? ` (or pick ${close.join(", ")})` : ""}.`);
     if (speedRpm !== null && !(speedRpm > 0)) return setProblem("Shaft speed must be a positive number of rpm.");
     if (ready === 0) return setProblem("Add at least one CSV file.");
     setProblem(null);
     setBusy(true);
     await queue.uploadAll({
-      unitSerial: serial.trim(), newUnitRatingId: known ? undefined : ratingId, testKind, speedRpm,
+      unitSerial: serial.trim(), newUnitRatingId: known ? undefined : ratingId, confirmNewUnit: known ? undefined : confirmNew, testKind, speedRpm,
       stationId: stationId || undefined, notes,
     });
     setBusy(false);
@@ -65,12 +69,23 @@ function UploadFormInner({ options }: { options: UploadFormOptions }) {
         </Field>
         <datalist id="unit-serials">{options.units.map((u) => <option key={u.serial} value={u.serial}>{u.modelCode}</option>)}</datalist>
         {serial.trim() && !known ? (
-          <Field label="Rating of the new unit">
-            <Select value={ratingId} onChange={(e) => setRatingId(e.target.value)}>
-              <option value="">Choose a rating…</option>
-              {options.ratings.map((r) => <option key={r.id} value={r.id}>{r.label}</option>)}
-            </Select>
-          </Field>
+          <div className="space-y-2">
+            <Field label="Rating of the new unit">
+              <Select value={ratingId} onChange={(e) => setRatingId(e.target.value)}>
+                <option value="">Choose a rating…</option>
+                {options.ratings.map((r) => <option key={r.id} value={r.id}>{r.label}</option>)}
+              </Select>
+            </Field>
+            {close.length > 0 ? (
+              <p className="text-xs" role="status">Close to units on file: {close.map((s) => (
+                <button key={s} type="button" className="mr-2 font-mono underline" onClick={() => setSerial(s)}>{s}</button>
+              ))}</p>
+            ) : null}
+            <label className="flex items-center gap-2 text-sm">
+              <input type="checkbox" checked={confirmNew} onChange={(e) => setConfirmNew(e.target.checked)} />
+              Register {serial.trim()} as a new unit
+            </label>
+          </div>
         ) : null}
         <Field label="Test">
           <Select value={testKind} onChange={(e) => setTestKind(e.target.value as BatchMeta["testKind"])}>

@@ -3,17 +3,18 @@ import { getDb } from "@/db/client";
 import { captures, organisations, ratings, units, type Unit } from "@/db/schema";
 import { unitScopeWhere, type Scope } from "./scope";
 
-export type UnitListFilter = { search?: string; overall?: Unit["latestOverall"] | "untested"; limit?: number; offset?: number };
+export type UnitListFilter = { search?: string; overall?: Unit["latestOverall"] | "untested"; includeRetired?: boolean; limit?: number; offset?: number };
 
 export async function listUnits(scope: Scope, filter: UnitListFilter = {}) {
   const where: SQL[] = [unitScopeWhere(scope)];
+  if (!filter.includeRetired) where.push(sql`${units.retiredAt} is null`);
   if (filter.search) where.push(ilike(units.serial, `%${filter.search.replace(/[%_\\]/g, "\\$&")}%`));
   if (filter.overall === "untested") where.push(sql`${units.latestOverall} is null`);
   else if (filter.overall) where.push(eq(units.latestOverall, filter.overall));
   return getDb()
     .select({
       id: units.id, serial: units.serial, disposition: units.disposition, latestOverall: units.latestOverall,
-      latestCaptureAt: units.latestCaptureAt, ratingTitle: ratings.title, modelCode: ratings.modelCode,
+      latestCaptureAt: units.latestCaptureAt, ratingTitle: ratings.title, modelCode: ratings.modelCode, planState: units.planState,
       owner: organisations.name,
       captureCount: sql<number>`(select count(*) from ${captures} where ${captures.unitId} = ${units.id})`.mapWith(Number),
     })

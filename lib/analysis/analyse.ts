@@ -1,16 +1,18 @@
-import { MAGNET_COEFFICIENTS_PERCENT_PER_K, computeBackEmf, keAtReferenceTemperature, polesFromSpeed } from "./back-emf";
+import { MAGNET_COEFFICIENTS_PERCENT_PER_K, computeBackEmf, computeSinglePhaseBackEmf, keAtReferenceTemperature, polesFromSpeed } from "./back-emf";
 import { analyseChannel, finiteOrNull, isVoltageRole, type ChannelAnalysis } from "./channel-metrics";
 import { wholeCycleWindow } from "./cycles";
 import { estimateBySpectrum, estimateByZeroCrossings, refineFrequency } from "./frequency";
 import { highestOrderBelowNyquist } from "./harmonics";
 import { analysisOptionsSchema, type AnalysisOptions } from "./options";
 import { computePowerReport } from "./power-report";
+import { FEW_CYCLES_INVALIDATES, SAMPLE_RATE_INVALIDATES } from "./invalidation";
 import { polePairWarning } from "./quality";
+import { checkChannelValues } from "./sample-check";
 import { CaptureRejection } from "./rejection";
 import { suggestChannelRoles } from "./roles";
 import { analyseThreePhase } from "./three-phase";
 import { ANALYSIS_VERSION } from "./version";
-import { computeVerdicts, overallStatus, type JudgeOptions } from "./verdicts";
+import { judgeMeasured, overallStatus, type JudgeOptions } from "./verdicts";
 import type { AnalysisReport, BackEmfReport } from "./report-schema";
 import type { ChannelRole, ParsedCapture, QualityWarning } from "./types";
 
@@ -69,6 +71,12 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
   const warnings: QualityWarning[] = [...capture.warnings];
   const { sampleRateHz } = capture;
   if (capture.channels.length === 0) throw new CaptureRejection("no-channels", "The capture has no channels to analyse");
+  for (const channel of capture.channels) checkChannelValues(channel);
+  for (const applied of capture.probeScales ?? []) {
+    if (applied.from === "preamble") {
+      warnings.push({ code: "probe-ratio-from-preamble", level: "info", channel: applied.channel, message: `Probe ratio ×${applied.scale} applied to channel "${applied.channel}" as the instrument preamble states ("${applied.statement}"); give a ratio for the channel to override it` });
+    }
+  }
   const suggested = suggestChannelRoles(capture.channels.map((channel) => channel.id));
   const roles = capture.channels.map((channel) => opts.channelRoles?.[channel.id] ?? suggested[channel.id] ?? "v");
   const referenceIndex = REFERENCE_ORDER.map((role) => roles.indexOf(role)).find((index) => index >= 0) ?? 0;
@@ -79,18 +87,24 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
     throw new CaptureRejection("too-few-cycles", `Only ${window?.cycles ?? 0} whole cycle(s) of ${frequencyHz.toPrecision(5)} Hz: at least ${MIN_CYCLES} are needed`, { column: reference.id });
   }
   if (window.cycles < FEW_CYCLES) {
-    warnings.push({ code: "few-cycles", message: `Only ${window.cycles} whole cycles: frequency and RMS are less certain below ${FEW_CYCLES}` });
+    warnings.push({
+      code: "few-cycles",
+      message: `Only ${window.cycles} whole cycles (${FEW_CYCLES} needed): frequency, harmonics and phasors are not settled, so the checks drawn from them are not judged`,
+      invalidates: [...FEW_CYCLES_INVALIDATES],
+    });
   }
   const highest = highestOrderBelowNyquist(sampleRateHz, frequencyHz);
   if (highest < opts.harmonics) {
     warnings.push({
       code: "sample-rate-low",
-      message: `At ${sampleRateHz.toPrecision(5)} S/s harmonics stop at order ${highest} (fs must exceed 2·H·f1 = ${(2 * opts.harmonics * frequencyHz).toPrecision(5)} S/s for H = ${opts.harmonics})`,
+      message: `At ${sampleRateHz.toPrecision(5)} S/s harmonics stop at order ${highest} (fs must exceed 2·H·f1 = ${(2 * opts.harmonics * frequencyHz).toPrecision(5)} S/s for H = ${opts.harmonics}): distortion figures are not judged`,
+      invalidates: [...SAMPLE_RATE_INVALIDATES],
     });
   }
   const harmonicCycles = Math.min(window.cycles, Math.max(10, Math.floor(HARMONIC_WINDOW_SAMPLES / (sampleRateHz / frequencyHz))));
   const harmonicWindow = wholeCycleWindow(capture.sampleCount, sampleRateHz, frequencyHz, 0, harmonicCycles) ?? window;
   const context = { sampleRateHz, frequencyHz, window, harmonicWindow, maxOrder: opts.harmonics, groupingIec: opts.groupingIec, deviationBasis: opts.deviationBasis };
+  // TIF is computed on every voltage channel; whether it is judged is the rating's matter (60 Hz).
   const analyses: ChannelAnalysis[] = capture.channels.map((channel, index) => analyseChannel(channel, roles[index] as ChannelRole, context));
   for (const analysis of analyses) warnings.push(...analysis.warnings);
   const threePhase = analyseThreePhase(analyses, window);
@@ -100,7 +114,10 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
     warnings.push({ code: "thf-band-limited", message: `THF sums harmonics up to ${(Math.min(opts.harmonics, highest) * frequencyHz).toFixed(0)} Hz, short of the 5 kHz of IEC 60034-1: raise the harmonic order for a full THF` });
   }
   const measured = { channels: analyses.map((analysis) => analysis.report), frequencyHz, threePhase: threePhase?.report ?? null, backEmf };
-  const verdicts = opts.rating && opts.profile ? computeVerdicts({ ...measured, warnings }, { rating: opts.rating, profile: opts.profile, checks: opts.checks, stepName: opts.stepName }) : [];
+  const judged = opts.rating && opts.profile
+    ? judgeMeasured({ ...measured, warnings, referenceChannel: reference.id }, { rating: opts.rating, profile: opts.profile, checks: opts.checks, stepName: opts.stepName })
+    : { verdicts: [], warnings };
+  const verdicts = judged.verdicts;
   return {
     analysisVersion: ANALYSIS_VERSION,
     sampleRateHz,
@@ -113,7 +130,8 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
     deviationBasis: opts.deviationBasis,
     ...measured,
     power,
-    warnings,
+    warnings: judged.warnings,
+    ...(capture.probeScales && capture.probeScales.length > 0 ? { probeScales: capture.probeScales } : {}),
     verdicts,
     overall: overallStatus(verdicts),
   };
@@ -124,8 +142,8 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
  * without reading the file: the same verdicts the analysis would have given.
  */
 export function judgeReport(report: AnalysisReport, options: JudgeOptions): AnalysisReport {
-  const verdicts = computeVerdicts(report, options);
-  return { ...report, verdicts, overall: overallStatus(verdicts) };
+  const { verdicts, warnings } = judgeMeasured(report, options);
+  return { ...report, warnings, verdicts, overall: overallStatus(verdicts) };
 }
 
 function computeBackEmfReport(
@@ -139,7 +157,8 @@ function computeBackEmfReport(
   const polesFromFrequency = polesFromSpeed(frequencyHz, opts.speedRpm);
   const poleWarning = polePairWarning(polesFromFrequency);
   if (poleWarning) warnings.push(poleWarning);
-  const lines = threePhase?.lineToLine.map((line) => line.fundamentalRms);
+  const singlePhase = opts.rating?.phases === 1;
+  const lines = singlePhase ? undefined : threePhase?.lineToLine.map((line) => line.fundamentalRms);
   let lineRms = lines && lines.length > 0 ? lines.reduce((sum, value) => sum + value, 0) / lines.length : undefined;
   if (lineRms === undefined) {
     const single = analyses.find((analysis) => isVoltageRole(analysis.role));
@@ -148,16 +167,22 @@ function computeBackEmfReport(
       return null;
     }
     const phaseRole = ["van", "vbn", "vcn"].includes(single.role);
-    lineRms = single.report.fundamental.rms * (phaseRole ? Math.sqrt(3) : 1);
-    warnings.push({
-      code: "back-emf-single-channel",
-      message: phaseRole
-        ? `Back-EMF constant taken from line-neutral channel "${single.channel.id}" × √3 (a balanced set assumed)`
-        : `Back-EMF constant taken from channel "${single.channel.id}" as a line-line voltage`,
-    });
+    if (singlePhase) {
+      // A single-phase machine's Ke is per phase: the one winding's voltage, no √3 (DOMAIN §1).
+      lineRms = single.report.fundamental.rms;
+      warnings.push({ code: "back-emf-single-phase", level: "info", message: `Back-EMF constant taken from the winding voltage on channel "${single.channel.id}" (single-phase machine: per phase, no √3)` });
+    } else {
+      lineRms = single.report.fundamental.rms * (phaseRole ? Math.sqrt(3) : 1);
+      warnings.push({
+        code: "back-emf-single-channel",
+        message: phaseRole
+          ? `Back-EMF constant taken from line-neutral channel "${single.channel.id}" × √3 (a balanced set assumed)`
+          : `Back-EMF constant taken from channel "${single.channel.id}" as a line-line voltage`,
+      });
+    }
   }
   const poles = opts.poles ?? opts.rating?.poles ?? Math.max(2, 2 * Math.round(polesFromFrequency / 2));
-  const result = computeBackEmf(lineRms, opts.speedRpm, poles);
+  const result = singlePhase ? computeSinglePhaseBackEmf(lineRms, opts.speedRpm, poles) : computeBackEmf(lineRms, opts.speedRpm, poles);
   const magnet = opts.magnetTemperature;
   const corrected = magnet
     ? keAtReferenceTemperature(result.keLineRmsPerKrpm, magnet.measuredC, magnet.referenceC, magnet.coefficientPercentPerK ?? MAGNET_COEFFICIENTS_PERCENT_PER_K[magnet.material])

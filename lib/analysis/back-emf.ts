@@ -10,6 +10,8 @@ export interface BackEmfResult {
   kePhasePeakPerRadS: number;
   /** Ke_LL,rms in V·s/rad (per mechanical rad/s). */
   keLineRmsVsPerRad: number;
+  /** Phase RMS per krpm: V_LL/√3 of a star-equivalent set, or the winding of a single-phase machine. */
+  kePhaseRmsPerKrpm: number;
   /** Kt = √3·Ke_LL,rms[V·s/rad], sinusoidal machine, current in phase with EMF [D]. */
   ktNmPerArms: number;
 }
@@ -36,7 +38,31 @@ export function computeBackEmf(lineRmsVolts: number, speedRpm: number, poles: nu
     keLinePeakPerKrpm: Math.SQRT2 * keLineRmsPerKrpm,
     kePhasePeakPerRadS: (Math.SQRT2 * lineRmsVolts) / Math.sqrt(3) / radPerS,
     keLineRmsVsPerRad,
+    kePhaseRmsPerKrpm: keLineRmsPerKrpm / Math.sqrt(3),
     ktNmPerArms: Math.sqrt(3) * keLineRmsVsPerRad,
+  };
+}
+
+/**
+ * Back-EMF constants of a single-phase machine from its one winding's fundamental RMS voltage: the
+ * phase values are the winding's (no √3), and the terminal ("line") values are the same winding.
+ * Kt = E_rms/ω per A_rms for one winding, current in phase with the EMF [D].
+ */
+export function computeSinglePhaseBackEmf(windingRmsVolts: number, speedRpm: number, poles: number): BackEmfResult {
+  const krpm = speedRpm / 1000;
+  const radPerS = krpm * RAD_PER_S_PER_KRPM;
+  const perKrpm = windingRmsVolts / krpm;
+  const vsPerRad = windingRmsVolts / radPerS;
+  return {
+    speedRpm,
+    poles,
+    expectedFrequencyHz: (poles * speedRpm) / 120,
+    keLineRmsPerKrpm: perKrpm,
+    keLinePeakPerKrpm: Math.SQRT2 * perKrpm,
+    kePhasePeakPerRadS: Math.SQRT2 * vsPerRad,
+    keLineRmsVsPerRad: vsPerRad,
+    kePhaseRmsPerKrpm: perKrpm,
+    ktNmPerArms: vsPerRad,
   };
 }
 

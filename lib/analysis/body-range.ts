@@ -12,6 +12,7 @@
  * ColumnSink.finish and `assemble`. tests/unit/server/parallel-ingest.test.ts pins the equality.
  * No I/O, no threads.
  */
+import { columnProbeScales } from "./probe-preamble";
 import type { ColumnSink } from "./column-sink";
 import { createFastBodyParser } from "./fast-body-parser";
 import { CaptureRejection } from "./rejection";
@@ -95,7 +96,8 @@ export function prepareBodyLayout(head: Uint8Array, options: ParseOptions = {}):
   const lastStart = starts[starts.length - 1] ?? bodyOffset;
   const sampledRows = starts.length - 1 - layout.dataStartIndex;
   const bytesPerRow = sampledRows > 0 ? Math.max(1, (lastStart - bodyOffset) / sampledRows) : 64;
-  const factors = layout.headers.map((header, index) => (layout.units[index]?.factor ?? 1) * (options.calibration?.[header]?.scale ?? 1));
+  const probes = columnProbeScales(layout, options.calibration);
+  const factors = layout.headers.map((_, index) => (layout.units[index]?.factor ?? 1) * (probes.scales[index] ?? 1));
   const offsets = layout.headers.map((header) => options.calibration?.[header]?.offset ?? 0);
   const timeFactor = layout.timeColumn !== null ? (layout.units[layout.timeColumn]?.factor ?? 1) : 1;
   return {
@@ -255,6 +257,7 @@ export function joinBodyRanges(
     if (layout.timeColumn !== null && !time.append(track, range.firstLine)) throw new BodyRangeFallback("time not increasing at a seam");
     count += range.count;
   }
+  const probes = columnProbeScales(layout, options.calibration);
   // The same whole-column judgement as ColumnSink.finish.
   let warnings: QualityWarning[] = [];
   let sinkRateHz: number | null = null;
@@ -282,5 +285,6 @@ export function joinBodyRanges(
     channels: out,
     metadata: layout.metadata,
     warnings,
+    ...(probes.applied.length > 0 ? { probeScales: probes.applied } : {}),
   };
 }

@@ -1,10 +1,11 @@
 import { ColumnSink, type SinkColumn } from "./column-sink";
 import { createFastBodyParser, type BodyParser } from "./fast-body-parser";
+import { columnProbeScales } from "./probe-preamble";
 import { createReferenceBodyParser } from "./reference-body-parser";
 import { CaptureRejection } from "./rejection";
 import { sniffLines, type CaptureLayout } from "./sniff";
 import { siUnitFor } from "./units";
-import type { ParsedCapture, ParseOptions, QualityWarning } from "./types";
+import type { AppliedProbeScale, ParsedCapture, ParseOptions, QualityWarning } from "./types";
 
 const HEAD_LINES = 64;
 const HEAD_BYTES = 1 << 20;
@@ -82,6 +83,7 @@ export function createCaptureParser(options: ParseOptions = {}): { push(chunk: U
   let body: BodyParser | null = null;
   let sink: ColumnSink | null = null;
   let finished = false;
+  const applied: AppliedProbeScale[] = [];
 
   function start(final: boolean): void {
     const head = concat(headChunks, headBytes);
@@ -95,10 +97,12 @@ export function createCaptureParser(options: ParseOptions = {}): { push(chunk: U
     const sampledRows = starts.length - 1 - layout.dataStartIndex;
     const bytesPerRow = sampledRows > 0 ? Math.max(1, (lastStart - bodyOffset) / sampledRows) : 64;
     const expectedRows = options.expectedBytes ? (options.expectedBytes - bodyOffset) / bytesPerRow : 0;
+    const probes = columnProbeScales(layout, options.calibration);
+    applied.push(...probes.applied);
     const columns: SinkColumn[] = layout.headers.map((header, index) => {
-      const calibration = options.calibration?.[header];
       const unitFactor = layout?.units[index]?.factor ?? 1;
-      return { header, factor: unitFactor * (calibration?.scale ?? 1), offset: calibration?.offset ?? 0 };
+      // The caller's ratio wins; else the one the preamble states for this channel.
+      return { header, factor: unitFactor * (probes.scales[index] ?? 1), offset: options.calibration?.[header]?.offset ?? 0 };
     });
     const timeFactor = layout.timeColumn !== null ? (layout.units[layout.timeColumn]?.factor ?? 1) : 1;
     sink = new ColumnSink(columns, layout.timeColumn, timeFactor, options.timeStepTolerance ?? 0.25, expectedRows * 1.02 + 1024);
@@ -139,7 +143,7 @@ export function createCaptureParser(options: ParseOptions = {}): { push(chunk: U
         start(true);
       }
       (body as BodyParser).finish();
-      return assemble(layout as CaptureLayout, (sink as ColumnSink).finish(), options);
+      return { ...assemble(layout as CaptureLayout, (sink as ColumnSink).finish(), options), ...(applied.length > 0 ? { probeScales: applied } : {}) };
     },
   };
 }

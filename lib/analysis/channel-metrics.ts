@@ -58,7 +58,6 @@ export function analyseChannel(channel: CaptureChannel, role: ChannelRole, conte
   }
   const voltage = isVoltageRole(role);
   const lines = components.map((c) => ({ frequencyHz: c.frequencyHz, rms: c.rms }));
-  const tifApplies = voltage && frequencyHz >= 55 && frequencyHz <= 65;
   const groups = context.groupingIec ? computeHarmonicGroups(x, sampleRateHz, frequencyHz, harmonicWindow, context.maxOrder) : null;
   if (context.groupingIec && groups === null) {
     warnings.push({ code: "grouping-too-short", message: `Channel "${channel.id}": too few cycles for one IEC 61000-4-7 window (10 or 12 cycles)` });
@@ -70,6 +69,7 @@ export function analyseChannel(channel: CaptureChannel, role: ChannelRole, conte
     : null;
   const flatTops = countFlatTops(x, harmonicWindow.start, harmonicWindow.start + Math.floor(harmonicWindow.spanSamples), flatTopRunSamples(samplesPerCycle));
   const clipping = clippingWarning(channel.id, flatTops.runs, flatTops.longestRun);
+  // Only a voltage channel feeds the distortion checks; a clipped current is reported, not judged.
   if (clipping) warnings.push(clipping);
   const offset = dcOffsetWarning(channel.id, dc, magnitude(fundamental));
   if (offset) warnings.push(offset);
@@ -86,7 +86,7 @@ export function analyseChannel(channel: CaptureChannel, role: ChannelRole, conte
     thdFPercent: finiteOrNull(thdFPercent),
     thdRPercent: finiteOrNull(thdRPercent),
     thfPercent: voltage ? finiteOrNull(computeThf(lines, rms)) : null,
-    tif: tifApplies ? finiteOrNull(computeTif(lines, rms)) : null,
+    tif: voltage ? finiteOrNull(computeTif(lines, rms)) : null,
     deviationFactorPercent: finiteOrNull(deviation),
     harmonicGroups: groups,
     thdGroupedPercent: finiteOrNull(grouped),

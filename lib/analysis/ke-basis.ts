@@ -3,7 +3,8 @@ import type { BackEmfReport } from "./report-schema";
 
 /**
  * The measured back-EMF constant in the rating's basis, at the magnet reference temperature when the
- * report carries a corrected value. V_ph = V_LL/√3 for a balanced star-equivalent set; peak = √2·RMS;
+ * report carries a corrected value. Phase RMS is the report's own figure (the one winding of a
+ * single-phase machine; V_LL/√3 of a balanced star-equivalent set); peak = √2·RMS;
  * 1 krpm = 104.72 rad/s (DOMAIN §1).
  */
 export function keInBasis(backEmf: BackEmfReport | null, basis: KeBasis): number | null {
@@ -17,7 +18,8 @@ export function keInBasis(backEmf: BackEmfReport | null, basis: KeBasis): number
       case "line-line-peak-per-krpm":
         return backEmf.keLinePeakPerKrpm;
       case "phase-rms-per-krpm":
-        return backEmf.keLineRmsPerKrpm / Math.sqrt(3);
+        // Reports before engine 2.1.0 carry no phase figure: the star equivalent then.
+        return backEmf.kePhaseRmsPerKrpm ?? backEmf.keLineRmsPerKrpm / Math.sqrt(3);
       case "phase-peak-per-rad-s":
         return backEmf.kePhasePeakPerRadS;
     }

@@ -6,7 +6,8 @@ import { CHECK_IDS, toleranceProfileSchema } from "./tolerance";
 export const analysisOptionsSchema = z.object({
   /** Keyed by column header as written; missing channels take the roles suggested from headers. */
   channelRoles: z.record(z.string(), channelRoleSchema).optional(),
-  speedRpm: z.number().positive().optional(),
+  /** Shaft speed; below 1 rpm no figure that scales with speed means anything. */
+  speedRpm: z.number({ error: "Shaft speed must be a number" }).finite().min(1, "Shaft speed starts at 1 rpm").max(200_000, "Shaft speed is above 200 000 rpm").optional(),
   poles: z.number().int().positive().optional(),
   /** Highest harmonic order (IEEE 519 uses 50, IEC 61000-4-7 40). */
   harmonics: z.number().int().min(2).max(200).default(50),

@@ -1,3 +1,4 @@
+import { CLIPPING_INVALIDATES } from "./invalidation";
 import type { QualityWarning } from "./types";
 
 /**
@@ -13,7 +14,9 @@ export function clippingWarning(channelId: string, runs: number, longestRun: num
   if (runs < 2) return null;
   return {
     code: "clipping",
-    message: `Channel "${channelId}" has ${runs} flat tops at its extreme value (up to ${longestRun} samples): the input may be clipped; amplitudes and distortion are unreliable`,
+    message: `Channel "${channelId}" has ${runs} flat tops at its extreme value (up to ${longestRun} samples): the input may be clipped; its peak, crest factor and distortion figures are unreliable and not judged`,
+    channel: channelId,
+    invalidates: [...CLIPPING_INVALIDATES],
   };
 }
 

@@ -48,6 +48,11 @@ const backEmfSchema = z.object({
   keLinePeakPerKrpm: finite,
   kePhasePeakPerRadS: finite,
   keLineRmsVsPerRad: finite,
+  /**
+   * Phase RMS per krpm: from the one winding of a single-phase machine (no √3), V_LL/√3 of a
+   * three-phase set (star equivalent). Absent in reports before engine 2.1.0.
+   */
+  kePhaseRmsPerKrpm: finite.optional(),
   ktNmPerArms: finite,
   basis: z.literal("fundamental"),
   /** Ke_LL,rms per krpm corrected to `referenceTemperatureC`, when a magnet temperature was given. */
@@ -77,6 +82,26 @@ const powerSchema = z.object({
     powerFactor: maybe,
     positiveSequenceActivePowerW: maybe,
   }),
+});
+
+/**
+ * A warning as a sentence; `invalidates` lists the checks it makes inconclusive (for `channel` only,
+ * when set), `level` "alert" marks a plausibility warning to show prominently, "info" a plain note.
+ */
+export const warningSchema = z.object({
+  code: z.string(),
+  message: z.string(),
+  level: z.enum(["info", "warning", "alert"]).optional(),
+  invalidates: z.array(z.string()).optional(),
+  channel: z.string().optional(),
+});
+
+const probeScaleSchema = z.object({
+  channel: z.string(),
+  scale: finite,
+  from: z.enum(["caller", "preamble"]),
+  /** The preamble line it was read from, for `from: "preamble"`. */
+  statement: z.string().nullable(),
 });
 
 /**
@@ -118,7 +143,9 @@ export const analysisReportSchema = z.object({
   threePhase: threePhaseSchema.nullable(),
   backEmf: backEmfSchema.nullable(),
   power: powerSchema.nullable(),
-  warnings: z.array(z.object({ code: z.string(), message: z.string() })),
+  warnings: z.array(warningSchema),
+  /** Probe ratios applied while reading the file: the caller's, or the instrument preamble's. */
+  probeScales: z.array(probeScaleSchema).optional(),
   verdicts: z.array(verdictSchema),
   overall: verdictStatusSchema,
 });
@@ -129,4 +156,5 @@ export type ThreePhaseReport = z.infer<typeof threePhaseSchema>;
 export type BackEmfReport = z.infer<typeof backEmfSchema>;
 export type PowerReport = z.infer<typeof powerSchema>;
 export type Verdict = z.infer<typeof verdictSchema>;
+export type ReportWarning = z.infer<typeof warningSchema>;
 export type VerdictStatus = z.infer<typeof verdictStatusSchema>;

@@ -3,9 +3,27 @@ export type ChannelRole = (typeof CHANNEL_ROLES)[number];
 
 export type SiUnit = "V" | "A";
 
+/** How a warning is shown: "alert" prominently (plausibility), "info" as a plain note. Absent: a warning. */
+export type WarningLevel = "info" | "warning" | "alert";
+
 export interface QualityWarning {
   code: string;
+  /** The sentence people read; it is also the reason of every check it makes inconclusive. */
   message: string;
+  level?: WarningLevel;
+  /** Check ids (see tolerance.ts CHECK_IDS) whose figures this warning invalidates. */
+  invalidates?: string[];
+  /** The channel (column header) it is about; it invalidates a check only when that channel feeds it. */
+  channel?: string;
+}
+
+/** A probe ratio applied to a channel at parse time, and where it came from. */
+export interface AppliedProbeScale {
+  channel: string;
+  scale: number;
+  from: "caller" | "preamble";
+  /** The preamble line as read (key and value), for a ratio taken from the file. */
+  statement: string | null;
 }
 
 export interface CaptureChannel {
@@ -22,6 +40,8 @@ export interface ParsedCapture {
   channels: CaptureChannel[];
   metadata: Record<string, string>;
   warnings: QualityWarning[];
+  /** Probe ratios applied while parsing (caller's or the preamble's); absent when none. */
+  probeScales?: AppliedProbeScale[];
 }
 
 export interface ChannelCalibration {

@@ -25,8 +25,10 @@ export const captureRegistrationSchema = z.object({
   unitSerial: z.string().trim().min(1, "Give the unit's serial number").max(64).regex(/^[\w./-]+$/, "Serial numbers use letters, digits, - _ . / only"),
   /** Registers the unit with this rating when the serial is not known yet. */
   newUnitRatingId: z.uuid().optional(),
+  /** A new serial is registered only when this confirms it is not a typo of one on file. */
+  confirmNewUnit: z.boolean().optional(),
   testKind: z.enum(TEST_KINDS),
-  speedRpm: z.number().positive().max(200_000).nullable().optional(),
+  speedRpm: z.number({ error: "Shaft speed must be a number" }).finite().min(1, "Shaft speed starts at 1 rpm").max(200_000, "Shaft speed is above 200 000 rpm").nullable().optional(),
   channelRoles: channelRolesSchema.default({}),
   probeScales: probeScalesSchema.default({}),
   stationId: z.uuid().optional(),
@@ -49,3 +51,26 @@ export const presignPartsSchema = z.object({
 export type UploadPlan =
   | { kind: "single"; method: "PUT"; url: string; headers: Record<string, string>; expiresInS: number }
   | { kind: "multipart"; partSize: number; parts: { partNumber: number; url: string }[]; expiresInS: number };
+
+/** Offsets added after scaling, in volts or amps, per column header. */
+export const channelOffsetsSchema = z
+  .record(z.string().min(1).max(120), z.number().finite().min(-1e6).max(1e6))
+  .refine((r) => Object.keys(r).length <= MAX_CHANNELS, `At most ${MAX_CHANNELS} channels`);
+
+/**
+ * A correction of a capture's settings after upload. Only the fields given change; a reason is
+ * always recorded, and the capture is analysed again with the new settings.
+ */
+export const captureCorrectionSchema = z.object({
+  channelRoles: channelRolesSchema.optional(),
+  probeScales: probeScalesSchema.optional(),
+  channelOffsets: channelOffsetsSchema.optional(),
+  speedRpm: z.number().min(1, "Shaft speed starts at 1 rpm").max(200_000).nullable().optional(),
+  testKind: z.enum(TEST_KINDS).optional(),
+  /** null: match the plan step from test kind and speed. */
+  planStepId: z.uuid().nullable().optional(),
+  magnetTemperatureC: z.number().min(-60).max(250).nullable().optional(),
+  reason: z.string().trim().min(5, "Say why the settings change (at least 5 characters)").max(1000),
+});
+export type CaptureCorrection = z.input<typeof captureCorrectionSchema>;
+export const CORRECTABLE_FIELDS = ["channelRoles", "probeScales", "channelOffsets", "speedRpm", "testKind", "planStepId", "magnetTemperatureC"] as const;

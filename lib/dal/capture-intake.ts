@@ -4,7 +4,9 @@ import {
   deleteUploadingCapture, getCaptureDetail, insertCaptureOnce, markCaptureQueued, setCaptureUpload, takeOverIdleUpload, touchUploadingCapture,
 } from "@/db/queries/captures";
 import { getStation } from "@/db/queries/stations";
+import { listSerialsLike } from "@/db/queries/unit-admin";
 import { getRatingForRegistration, getUnitBySerial, insertUnitOnce } from "@/db/queries/units";
+import { similarSerials } from "@/lib/units/similar-serials";
 import type { Capture } from "@/db/schema";
 import { CaptureRejection, sniffCaptureHeader } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
@@ -34,10 +36,15 @@ const mib = (bytes: number) => `${(bytes / 1024 ** 2).toFixed(1)} MiB`;
 
 async function resolveUnit(scope: Actor["scope"] & { kind: "lab" }, input: Registration) {
   const known = await getUnitBySerial(scope, input.unitSerial);
+  if (known?.unit.retiredAt) throw new HttpError(422, `Unit ${input.unitSerial} was retired (registered by mistake): use the unit's correct serial`);
   if (known) return known.unit;
   if (!input.newUnitRatingId) throw new HttpError(422, `No unit with serial ${input.unitSerial} in this lab: register it with its rating first`);
   const rating = await getRatingForRegistration(scope, input.newUnitRatingId);
   if (!rating) throw new HttpError(422, "Unknown rating: pick one of the ratings on file");
+  if (input.confirmNewUnit !== true) {
+    const close = similarSerials(input.unitSerial, await listSerialsLike(scope, input.unitSerial));
+    throw new HttpError(422, `${input.unitSerial} is not on file${close.length ? ` (close matches: ${close.join(", ")})` : ""}: confirm it is a new unit (confirmNewUnit: true) or correct the serial`);
+  }
   return insertUnitOnce(scope, { serial: input.unitSerial, ratingId: rating.id, organisationId: rating.organisationId });
 }
 

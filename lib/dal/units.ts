@@ -1,6 +1,6 @@
 import "server-only";
 import { z } from "zod";
-import { countUnitsByOverall, getUnit, listUnits } from "@/db/queries/units";
+import { countUnitsByOverall, getUnit, listRatingsForRegistration, listUnits } from "@/db/queries/units";
 import { requireUser } from "@/lib/auth/guards";
 import { scopeFor } from "./scope";
 
@@ -18,7 +18,7 @@ export async function getUnitListView(query: UnitListQuery) {
   const rows = await listUnits(scopeFor(user), {
     search: query.q || undefined, overall: query.overall, limit: PAGE_SIZE + 1, offset: (query.page - 1) * PAGE_SIZE,
   });
-  return { rows: rows.slice(0, PAGE_SIZE), hasMore: rows.length > PAGE_SIZE, page: query.page, showOwner: user.role !== "manufacturer" };
+  return { rows: rows.slice(0, PAGE_SIZE), hasMore: rows.length > PAGE_SIZE, page: query.page, showOwner: user.role !== "manufacturer", canRegister: user.role === "admin" || user.role === "operator" };
 }
 
 export async function getUnitView(unitId: string) {
@@ -31,4 +31,12 @@ export async function getUnitView(unitId: string) {
 export async function getHomeCounts() {
   const user = await requireUser();
   return countUnitsByOverall(scopeFor(user));
+}
+
+/** Ratings a unit may be moved to (lab managers and quality engineers editing a unit). */
+export async function getUnitRatingChoices() {
+  const user = await requireUser();
+  if (user.role !== "admin" && user.role !== "qa") return [];
+  const rows = await listRatingsForRegistration(scopeFor(user));
+  return rows.map((r) => ({ id: r.id, label: `${r.modelCode} · ${r.title} (${r.owner})` }));
 }

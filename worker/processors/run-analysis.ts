@@ -72,6 +72,10 @@ export async function runAnalysis(capture: Capture, judgement: Judgement, onProg
     );
   }
   const parsed = parser.finish();
+  if (capture.speedRpm !== null && !(capture.speedRpm >= 1)) {
+    // Speeds stored before the 1 rpm bound: refused with the field named rather than a schema error.
+    throw new CaptureRejection("speed-too-low", `The shaft speed given, ${capture.speedRpm} rpm, is below 1 rpm: correct the capture's speed`);
+  }
   const magnet = nameplate.data.magnetMaterial && capture.magnetTemperatureC !== null
     ? { measuredC: capture.magnetTemperatureC, referenceC: nameplate.data.magnetReferenceC ?? 20, material: nameplate.data.magnetMaterial }
     : undefined;

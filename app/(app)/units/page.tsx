@@ -2,6 +2,7 @@ import Link from "next/link";
 import { PageHeader } from "@/components/shell/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
 import { StatusTag } from "@/components/ui/status-tag";
+import { PLAN_STATE_WORDS } from "@/components/units/plan-panel";
 import { getUnitListView, unitListQuerySchema } from "@/lib/dal/units";
 
 export const metadata = { title: "Units" };
@@ -24,7 +25,8 @@ export default async function UnitsPage({ searchParams }: { searchParams: Promis
   };
   return (
     <>
-      <PageHeader title="Units" lead="Every unit with its latest verdict. Search by serial number." />
+      <PageHeader title="Units" lead="Every unit with its latest verdict and where it stands against its test plan. Search by serial number."
+        actions={view.canRegister ? <Link href="/units/new" className="rounded-md bg-copper-600 px-3 py-2 text-sm font-semibold text-white no-underline">Register a unit</Link> : null} />
       <form className="mb-4 flex flex-wrap items-end gap-3" role="search">
         <label className="text-sm">
           <span className="block font-semibold">Serial contains</span>
@@ -51,7 +53,7 @@ export default async function UnitsPage({ searchParams }: { searchParams: Promis
               <tr>
                 <th className="px-4 py-2">Serial</th><th className="px-4 py-2">Model</th>
                 {view.showOwner ? <th className="px-4 py-2">Client</th> : null}
-                <th className="px-4 py-2">Captures</th><th className="px-4 py-2">Latest verdict</th><th className="px-4 py-2">Disposition</th>
+                <th className="px-4 py-2">Captures</th><th className="px-4 py-2">Latest verdict</th><th className="px-4 py-2">Test plan</th><th className="px-4 py-2">Disposition</th>
               </tr>
             </thead>
             <tbody>
@@ -62,6 +64,7 @@ export default async function UnitsPage({ searchParams }: { searchParams: Promis
                   {view.showOwner ? <td className="px-4 py-2">{u.owner}</td> : null}
                   <td className="px-4 py-2 tabular-nums">{u.captureCount}</td>
                   <td className="px-4 py-2"><StatusTag status={u.latestOverall} /></td>
+                  <td className="px-4 py-2 text-xs">{PLAN_STATE_WORDS[u.planState]}</td>
                   <td className="px-4 py-2">{u.disposition}</td>
                 </tr>
               ))}

@@ -78,7 +78,7 @@ const LAYOUTS: Record<string, Layout> = {
     delimiter: ",",
     decimal: ".",
     newline: "\n",
-    preamble: ["# Sampling rate: 10 kHz", "# Trigger position: 0"],
+    preamble: ["# Sampling rate: 10 kHz", "# Trigger position: 0", "# CH2 Probe: 10:1"],
     header: ["CH1 [kV]", "CH2 [kV]"],
     time: false,
   },
