@@ -39,7 +39,7 @@ describe("capture intake under races", () => {
     const unitSerial = `RACE-${run}`;
     const ratingId = (await getUnitBySerial({ kind: "lab", labId }, "KG45-260301"))?.rating.id;
     const csv = makeThreePhaseCsv({ variant: run + 100 });
-    const body = JSON.stringify({ unitSerial, newUnitRatingId: ratingId, testKind: "no-load", fileName: "race.csv", sizeBytes: Buffer.byteLength(csv), sha256: sha256(csv) });
+    const body = JSON.stringify({ unitSerial, newUnitRatingId: ratingId, confirmNewUnit: true, testKind: "no-load", fileName: "race.csv", sizeBytes: Buffer.byteLength(csv), sha256: sha256(csv) });
     const answers = await Promise.all(Array.from({ length: 20 }, () =>
       registerRoute(new Request("http://test/api/v1/captures", { method: "POST", headers: { Authorization: `Bearer ${token}`, "Content-Type": "application/json" }, body }))));
     const statuses = answers.map((a) => a.status).sort();
