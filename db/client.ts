@@ -10,7 +10,8 @@ const globalForDb = globalThis as unknown as { emfolioPool?: Pool; emfolioDb?: D
 
 export function getDb(): Db {
   if (globalForDb.emfolioDb) return globalForDb.emfolioDb;
-  const pool = new Pool({ connectionString: getEnv().DATABASE_URL, max: 10 });
+  // A connect that hangs (an unreachable host) fails after 10 s, like a refused one, so callers can retry.
+  const pool = new Pool({ connectionString: getEnv().DATABASE_URL, max: 10, connectionTimeoutMillis: 10_000 });
   pool.on("error", (err) => console.error("PostgreSQL pool error:", err.message));
   globalForDb.emfolioPool = pool;
   globalForDb.emfolioDb = drizzle(pool, { schema });

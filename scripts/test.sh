@@ -45,6 +45,9 @@ node_modules/.bin/vitest run --project unit --reporter=default --reporter=json -
 step "integration tests"
 node_modules/.bin/vitest run --project integration --reporter=default --reporter=json --outputFile.json="$RESULTS/integration.json" || status=1
 
+step "fault run, short form (own services on the test ports + 100)"
+bash scripts/faults/run.sh --short || status=1
+
 step "end-to-end tests (Chromium)"
 export EMFOLIO_DIST_DIR=.next-test
 node_modules/.bin/next build >.data/log/test-build.log 2>&1 || { tail -50 .data/log/test-build.log; exit 1; }

@@ -4,7 +4,9 @@ import { closeDb } from "@/db/client";
 import { setCaptureState } from "@/db/queries/captures";
 import { getEnv } from "@/lib/server/env";
 import { ANALYSIS_QUEUE, closeAnalysisQueue, createRedis, type AnalysisJobData } from "@/lib/server/queue";
+import { logDetail } from "@/lib/server/outage";
 import { sweepAbandonedUploads } from "./abandoned-uploads";
+import { failureMessage, isOutageReason } from "./processors/messages";
 import { sweepAbandonedCaptures } from "./recovery";
 
 // The analysis worker: its own process beside the web app (`npm run worker`, or `node --import tsx worker/index.ts`).
@@ -31,36 +33,72 @@ worker.on("error", (err) => console.error(`worker error: ${err.message}`));
 worker.on("completed", (job: Job<AnalysisJobData>, result: unknown) => log(`${job.id} ${JSON.stringify(result)}`));
 worker.on("failed", (job: Job<AnalysisJobData> | undefined, err: Error) => {
   if (!job) return;
-  const final = err.name === "UnrecoverableError" || job.attemptsMade >= (job.opts.attempts ?? 1);
+  const outage = isOutageReason(err.message);
+  const final = !outage && (err.name === "UnrecoverableError" || job.attemptsMade >= (job.opts.attempts ?? 1));
   log(`${job.id} failed (attempt ${job.attemptsMade}${final ? ", final" : ""}): ${err.message}`);
-  if (!final) return;
+  if (outage) {
+    // Not the capture's fault: the sweep enqueues it again once the services answer.
+    scheduleSweep("after an outage", 2_000);
+    return;
+  }
+  if (!final || err.name === "UnrecoverableError") return;
   // The processor records its own outcomes; this covers a child process that died before it could.
   void setCaptureState({ kind: "lab", labId: job.data.labId }, job.data.captureId, "failed", ["queued", "analysing"], {
     progress: 0,
-    stateMessage: `Analysis failed: ${err.message}. It can be re-run once the cause is fixed.`,
-  }).catch((e: unknown) => console.error(`could not record the failure of ${job.id}: ${String(e)}`));
+    stateMessage: failureMessage(err, job.attemptsMade, job.opts.attempts ?? 1),
+  }).catch((e: unknown) => console.error(`could not record the failure of ${job.id}: ${logDetail(e)}`));
 });
 
-async function sweep(reason: string): Promise<void> {
+let stopping = false;
+let sweeping: Promise<void> | null = null;
+let soon: NodeJS.Timeout | null = null;
+
+/** One sweep at a time; a sweep asked for while one runs is folded into it. */
+function sweep(reason: string): Promise<void> {
+  sweeping ??= runSweep(reason).finally(() => (sweeping = null));
+  return sweeping;
+}
+
+/** A sweep shortly (after a reconnect, a failed enqueue or an outage), at most one pending. */
+function scheduleSweep(reason: string, delayMs: number): void {
+  if (soon || stopping) return;
+  soon = setTimeout(() => {
+    soon = null;
+    void sweep(reason);
+  }, delayMs);
+}
+
+async function runSweep(reason: string): Promise<void> {
   try {
     const r = await sweepAbandonedCaptures();
     if (r.requeued || r.markedFailed) log(`sweep (${reason}): ${r.checked} waiting, ${r.requeued} re-enqueued, ${r.markedFailed} marked failed`);
+    // Enqueueing failed (Redis went away mid-sweep): look again soon rather than a period later.
+    if (r.enqueueFailed) scheduleSweep("after a failed enqueue", 2_000);
     const u = await sweepAbandonedUploads(env.UPLOAD_ABANDON_HOURS * 3_600_000);
     if (u.removed) log(`sweep (${reason}): ${u.removed} upload(s) abandoned over ${env.UPLOAD_ABANDON_HOURS} h ago removed`);
     if (u.partsLeft) log(`sweep (${reason}): the object store cannot abort multipart uploads; parts of ${u.partsLeft} upload(s) stay there (use a lifecycle rule)`);
     for (const e of u.storageErrors) console.error(`sweep (${reason}): could not clean storage of an abandoned upload: ${e}`);
   } catch (err) {
-    console.error(`sweep (${reason}) failed: ${err instanceof Error ? err.message : String(err)}`);
+    console.error(`sweep (${reason}) failed: ${logDetail(err)}`);
+    scheduleSweep(`retry of the ${reason} sweep`, 5_000);
   }
 }
 
 const sweepTimer = setInterval(() => void sweep("periodic"), env.WORKER_SWEEP_INTERVAL_S * 1000);
+let started = false;
 void worker.waitUntilReady().then(async () => {
   log(`ready: queue ${env.QUEUE_PREFIX}:${ANALYSIS_QUEUE}, concurrency ${env.WORKER_CONCURRENCY}`);
+  started = true;
   await sweep("start");
 });
+// Redis came back (perhaps empty, after a restart or a flush): give the database's waiting captures
+// their jobs now rather than a sweep period later.
+connection.on("ready", () => {
+  if (!started) return;
+  log("Redis connection ready again");
+  scheduleSweep("Redis reconnected", 500);
+});
 
-let stopping = false;
 async function shutdown(signal: string): Promise<void> {
   if (stopping) {
     log(`${signal} again: exiting now`);
@@ -69,6 +107,7 @@ async function shutdown(signal: string): Promise<void> {
   stopping = true;
   log(`${signal}: finishing the running jobs, then stopping`);
   clearInterval(sweepTimer);
+  if (soon) clearTimeout(soon);
   // A job stuck on a dead connection must not keep the process alive: its lock expires and the
   // next worker takes it over, so leaving is safe.
   setTimeout(() => {

@@ -38,6 +38,7 @@ function CaptureLiveInner({ initial, canReanalyse }: { initial: CaptureStatusVie
         ) : null}
         {canReanalyse && isFinalState(c.state) ? <span className="ml-auto"><ReanalyseButton captureId={c.id} /></span> : null}
         {c.state === "analysing" ? <div className="w-full"><ProgressBar fraction={c.progress / 100} label="Analysis" /></div> : null}
+        {c.state === "analysing" && c.stateMessage ? <p className="w-full text-xs text-ink-600" data-testid="state-message">{c.stateMessage}</p> : null}
         {c.state === "queued" ? <p className="w-full text-xs text-ink-600">{c.stateMessage ?? "Waiting for a worker; this page updates by itself."}</p> : null}
         {c.state === "uploading" ? <p className="w-full text-xs text-ink-600">The upload was not completed. Send the same file again from the upload page to finish it.</p> : null}
       </div>

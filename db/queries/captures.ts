@@ -27,6 +27,40 @@ export async function setCaptureUpload(scope: Scope, captureId: string, upload: 
     .where(and(eq(captures.id, captureId), eq(captures.state, "uploading"), captureScopeWhere(scope)));
 }
 
+/** Removes a capture that never got a stored object (a registration or completion that was refused); analysed rows are never touched. */
+export async function deleteUploadingCapture(scope: Scope, captureId: string): Promise<boolean> {
+  const rows = await getDb()
+    .delete(captures)
+    .where(and(eq(captures.id, captureId), eq(captures.state, "uploading"), captureScopeWhere(scope)))
+    .returning({ id: captures.id });
+  return rows.length > 0;
+}
+
+/**
+ * One upload in progress per capture: takes over an upload idle (no URL issued or used) for
+ * `leaseMs`, in one statement so of concurrent registrations exactly one wins. Otherwise says how
+ * long the lease still runs.
+ */
+export async function takeOverIdleUpload(
+  scope: Scope, captureId: string, leaseMs: number, sizeBytes: number,
+): Promise<{ kind: "taken"; capture: Capture } | { kind: "busy"; retryAfterS: number } | { kind: "gone" }> {
+  const cutoff = new Date(Date.now() - leaseMs);
+  const rows = await getDb()
+    .update(captures)
+    .set({ sizeBytes, multipartUploadId: null, updatedAt: new Date() })
+    .where(and(eq(captures.id, captureId), eq(captures.state, "uploading"), lt(captures.updatedAt, cutoff), captureScopeWhere(scope)))
+    .returning();
+  if (rows[0]) return { kind: "taken", capture: rows[0] };
+  const current = await getDb()
+    .select({ state: captures.state, updatedAt: captures.updatedAt })
+    .from(captures)
+    .where(and(eq(captures.id, captureId), captureScopeWhere(scope)))
+    .limit(1);
+  const row = current[0];
+  if (!row || row.state !== "uploading") return { kind: "gone" };
+  return { kind: "busy", retryAfterS: Math.max(1, Math.ceil((row.updatedAt.getTime() + leaseMs - Date.now()) / 1000)) };
+}
+
 /** The capture with its unit, rating, station and uploader names, as pages and the API show it. */
 export async function getCaptureDetail(scope: Scope, captureId: string) {
   const rows = await getDb()
@@ -89,6 +123,14 @@ export async function claimCaptureForAnalysis(scope: Scope, captureId: string) {
   return found ? { capture, unit: found.unit, rating: found.rating } : null;
 }
 
+/** Says why an analysis is waiting (a service it needs did not answer) and shows the row is still looked after. */
+export async function noteCaptureWaiting(scope: Scope, captureId: string, stateMessage: string): Promise<void> {
+  await getDb()
+    .update(captures)
+    .set({ stateMessage, updatedAt: new Date() })
+    .where(and(eq(captures.id, captureId), inArray(captures.state, ["queued", "analysing"]), captureScopeWhere(scope)));
+}
+
 export async function setCaptureProgress(scope: Scope, captureId: string, progress: number): Promise<void> {
   await getDb()
     .update(captures)
@@ -114,10 +156,15 @@ export async function listCapturesForUnit(scope: Scope, unitId: string) {
 
 /**
  * The worker's recovery sweep, across every lab: ids and lab ids only of captures waiting for
- * analysis whose row has not moved for `idleMs`. The caller checks each against the queue.
+ * analysis whose row has not moved for `idleMs` (queued) or `analysingIdleMs` (analysing). The
+ * caller checks each against the queue.
  */
-export async function listIdleCapturesAwaitingAnalysis(idleMs: number, limit = 500, afterId?: string) {
-  const where = [inArray(captures.state, ["queued", "analysing"]), lt(captures.updatedAt, new Date(Date.now() - idleMs))];
+export async function listIdleCapturesAwaitingAnalysis(idleMs: number, limit = 500, afterId?: string, analysingIdleMs = idleMs) {
+  const now = Date.now();
+  const where = [
+    sql`((${captures.state} = 'queued' and ${captures.updatedAt} < ${new Date(now - idleMs).toISOString()})
+      or (${captures.state} = 'analysing' and ${captures.updatedAt} < ${new Date(now - analysingIdleMs).toISOString()}))`,
+  ];
   if (afterId) where.push(sql`${captures.id} > ${afterId}`);
   return getDb()
     .select({ captureId: captures.id, labId: captures.labId, state: captures.state })
@@ -125,6 +172,13 @@ export async function listIdleCapturesAwaitingAnalysis(idleMs: number, limit = 5
     .where(and(...where))
     .orderBy(captures.id)
     .limit(limit);
+}
+
+/** Captures waiting for or in analysis across every lab, counted up to `cap` (so the count stays cheap when it is huge). */
+export async function countAnalysisBacklog(cap: number): Promise<number> {
+  const rows = await getDb().execute<{ n: number }>(sql`select count(*)::int as n from (
+    select 1 from ${captures} where ${captures.state} in ('queued', 'analysing') limit ${cap}) as waiting`);
+  return Number(rows.rows[0]?.n ?? 0);
 }
 
 /**

@@ -2,6 +2,7 @@ import "server-only";
 import { getServerSession } from "next-auth";
 import { redirect } from "next/navigation";
 import type { Role } from "@/db/schema";
+import { guessService, isConnectionFailure, logDetail, outageSentence } from "@/lib/server/outage";
 import { authOptions, type SessionUser } from "./options";
 
 export async function getSessionUser(): Promise<SessionUser | null> {
@@ -24,7 +25,8 @@ export async function requireRole(...roles: Role[]): Promise<SessionUser> {
 }
 
 export class HttpError extends Error {
-  constructor(readonly status: number, message: string) {
+  /** `retryAfterS` becomes a Retry-After header (409 upload in progress, 429 backlog full). */
+  constructor(readonly status: number, message: string, readonly retryAfterS?: number) {
     super(message);
   }
 }
@@ -37,8 +39,20 @@ export async function requireApiUser(...roles: Role[]): Promise<SessionUser> {
   return user;
 }
 
+/** Seconds a client is asked to wait after a service outage (503). */
+const OUTAGE_RETRY_AFTER_S = 30;
+
+/** The JSON answer for a thrown error: its own message for an HttpError, a sentence for anything else (details to the log). */
 export function errorResponse(err: unknown): Response {
-  if (err instanceof HttpError) return Response.json({ error: err.message }, { status: err.status });
+  if (err instanceof HttpError) {
+    const headers = err.retryAfterS !== undefined ? { "Retry-After": String(err.retryAfterS) } : undefined;
+    return Response.json({ error: err.message }, { status: err.status, headers });
+  }
+  if (isConnectionFailure(err)) {
+    const service = guessService(err);
+    console.error(`${service} unreachable: ${logDetail(err)}`);
+    return Response.json({ error: outageSentence(service, "later") }, { status: 503, headers: { "Retry-After": String(OUTAGE_RETRY_AFTER_S) } });
+  }
   console.error(err);
   return Response.json({ error: "Something went wrong on the server." }, { status: 500 });
 }

@@ -1,6 +1,8 @@
 import "server-only";
 import { randomUUID } from "node:crypto";
-import { getCaptureDetail, insertCaptureOnce, markCaptureQueued, setCaptureState, setCaptureUpload, touchUploadingCapture } from "@/db/queries/captures";
+import {
+  deleteUploadingCapture, getCaptureDetail, insertCaptureOnce, markCaptureQueued, setCaptureUpload, takeOverIdleUpload, touchUploadingCapture,
+} from "@/db/queries/captures";
 import { getStation } from "@/db/queries/stations";
 import { listSerialsLike } from "@/db/queries/unit-admin";
 import { getRatingForRegistration, getUnitBySerial, insertUnitOnce } from "@/db/queries/units";
@@ -10,9 +12,10 @@ import { CaptureRejection, sniffCaptureHeader } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
 import { captureRegistrationSchema, type completeUploadSchema, type UploadPlan } from "@/lib/captures/input-schemas";
 import { getEnv } from "@/lib/server/env";
-import { enqueueAnalysis } from "@/lib/server/queue";
+import { isConnectionFailure } from "@/lib/server/outage";
+import { enqueueAnalysisOrLater } from "@/lib/server/queue";
 import {
-  captureObjectKey, completeMultipartUpload, createMultipartUpload, deleteIncompleteObject, headObject, MULTIPART_THRESHOLD_BYTES,
+  abortMultipartUpload, captureObjectKey, completeMultipartUpload, createMultipartUpload, deleteIncompleteObject, headObject, MULTIPART_THRESHOLD_BYTES,
   partCountFor, partSizeFor, presignParts, presignSinglePut, readObjectHead, UPLOAD_URL_TTL_S,
 } from "@/lib/server/storage";
 import type { z } from "zod";
@@ -23,6 +26,12 @@ import { readJson } from "./request";
 type Registration = z.output<typeof captureRegistrationSchema>;
 type Completion = z.output<typeof completeUploadSchema>;
 const HEADER_PROBE_BYTES = 64 * 1024;
+/**
+ * One upload in progress per capture: while its upload URLs were issued or used (parts asked for,
+ * completion started) within this many seconds, registering the same file again answers 409
+ * "upload in progress" with Retry-After; after that the new registration takes the upload over.
+ */
+export const UPLOAD_LEASE_S = 60;
 const mib = (bytes: number) => `${(bytes / 1024 ** 2).toFixed(1)} MiB`;
 
 async function resolveUnit(scope: Actor["scope"] & { kind: "lab" }, input: Registration) {
@@ -53,7 +62,9 @@ async function planUpload(scope: Actor["scope"], capture: Capture): Promise<Uplo
 
 /**
  * Registers a capture and returns where to upload it. The same file (sha256) for the same unit
- * returns the capture already stored; only one still uploading gets fresh upload URLs.
+ * returns the capture already stored; one still uploading answers 409 while its upload is in
+ * progress (see UPLOAD_LEASE_S) and is taken over with fresh upload URLs once it is idle.
+ * A registration that fails half-way (the object store unreachable) leaves no row behind.
  */
 export async function registerCapture(actor: Actor, input: Registration): Promise<{ capture: CaptureStatusView; duplicate: boolean; upload: UploadPlan | null }> {
   const scope = requireUploader(actor);
@@ -69,11 +80,37 @@ export async function registerCapture(actor: Actor, input: Registration): Promis
     notes: input.notes, originalName: input.fileName, objectKey: captureObjectKey(scope.labId, unit.id, id),
     sizeBytes: input.sizeBytes, sha256: input.sha256,
   });
-  if (duplicate && capture.sizeBytes !== input.sizeBytes) throw new HttpError(409, "A capture with this sha256 but another size exists for this unit");
-  const upload = capture.state === "uploading" ? await planUpload(scope, capture) : null;
-  const view = await getCaptureStatusView(actor, capture.id);
-  if (!view) throw new Error("a capture just stored could not be read back");
-  return { capture: view, duplicate, upload };
+  if (duplicate) {
+    let upload: UploadPlan | null = null;
+    if (capture.state === "uploading") upload = await takeOverUpload(scope, capture, input.sizeBytes);
+    else if (capture.sizeBytes !== input.sizeBytes) throw new HttpError(409, "A capture with this sha256 but another size exists for this unit");
+    const view = await getCaptureStatusView(actor, capture.id);
+    if (!view) throw new Error("a capture just stored could not be read back");
+    return { capture: view, duplicate, upload };
+  }
+  // A row just inserted whose answer does not reach the client (the store or the database failed
+  // half-way) goes again, so the client's retry is a fresh registration, not an "upload in progress".
+  try {
+    const upload = await planUpload(scope, capture);
+    const view = await getCaptureStatusView(actor, capture.id);
+    if (!view) throw new Error("a capture just stored could not be read back");
+    return { capture: view, duplicate, upload };
+  } catch (err) {
+    await deleteUploadingCapture(scope, capture.id).catch((e: unknown) => console.error(`could not remove half-registered capture ${capture.id}: ${String(e)}`));
+    throw err;
+  }
+}
+
+/** The same file registered again while its capture is still uploading. */
+async function takeOverUpload(scope: Actor["scope"], capture: Capture, sizeBytes: number): Promise<UploadPlan> {
+  const taken = await takeOverIdleUpload(scope, capture.id, UPLOAD_LEASE_S * 1000, sizeBytes);
+  if (taken.kind === "busy") {
+    throw new HttpError(409, `An upload of this file for this unit is in progress: wait for it to finish (try again in ${taken.retryAfterS} s)`, taken.retryAfterS);
+  }
+  if (taken.kind === "gone") throw new HttpError(409, "This capture changed while it was registered again: send the file again");
+  // The earlier client's parts go (where the store can abort); its completion now fails and it registers again.
+  if (capture.multipartUploadId) await abortMultipartUpload(capture.objectKey, capture.multipartUploadId).catch(() => false);
+  return planUpload(scope, taken.capture);
 }
 
 export async function presignCaptureParts(actor: Actor, captureId: string, partNumbers: number[]) {
@@ -88,11 +125,14 @@ export async function presignCaptureParts(actor: Actor, captureId: string, partN
   return presignParts(capture.objectKey, capture.multipartUploadId, partNumbers);
 }
 
-/** Refuses the upload and keeps nothing that could pass for a capture. */
-async function refuse(scope: Actor["scope"], capture: Capture, status: number, message: string, keepRow: boolean): Promise<never> {
+/**
+ * Refuses the upload and keeps nothing that could pass for a capture: neither the object nor the
+ * row, so the same file can be registered and sent again at once.
+ */
+async function refuse(scope: Actor["scope"], capture: Capture, status: number, message: string): Promise<never> {
   await deleteIncompleteObject(capture.objectKey).catch(() => undefined);
-  if (!keepRow) await setCaptureState(scope, capture.id, "rejected", ["uploading"], { stateMessage: message });
-  throw new HttpError(status, message);
+  await deleteUploadingCapture(scope, capture.id);
+  throw new HttpError(status, `${message}. Nothing was kept: register the file again to resend it`);
 }
 
 /**
@@ -113,27 +153,30 @@ export async function completeCaptureUpload(actor: Actor, captureId: string, inp
       try {
         await completeMultipartUpload(capture.objectKey, capture.multipartUploadId, input.parts);
       } catch (err) {
-        throw new HttpError(400, `The object store refused to assemble the parts: ${err instanceof Error ? err.message : String(err)}`);
+        if (isConnectionFailure(err)) throw err;
+        // The store's code names the problem (InvalidPart, NoSuchUpload...); its message may name hosts.
+        const code = (err as { name?: string } | null)?.name ?? "refused";
+        throw new HttpError(400, `The object store refused to assemble the parts (${code}): check each part's ETag, or register the file again`);
       }
     }
     const stored = await headObject(capture.objectKey);
     if (!stored) throw new HttpError(409, "Nothing has been uploaded for this capture yet");
     if (stored.sizeBytes !== capture.sizeBytes) {
-      await refuse(scope, capture, 400, `The uploaded file has ${stored.sizeBytes} bytes, but ${capture.sizeBytes} were registered: upload it again`, true);
+      await refuse(scope, capture, 400, `The uploaded file has ${stored.sizeBytes} bytes, but ${capture.sizeBytes} were registered`);
     }
     const head = await readObjectHead(capture.objectKey, Math.min(HEADER_PROBE_BYTES, capture.sizeBytes));
-    if (head.includes(0)) await refuse(scope, capture, 415, "The file holds binary data, not CSV text", false);
+    if (head.includes(0)) await refuse(scope, capture, 415, "The file holds binary data, not CSV text");
     try {
       sniffCaptureHeader(new TextDecoder().decode(head));
     } catch (err) {
       if (!(err instanceof CaptureRejection)) throw err;
-      await refuse(scope, capture, 422, err.message, false);
+      await refuse(scope, capture, 422, err.message.replace(/[.\s]+$/, ""));
     }
     const queued = await markCaptureQueued(scope, capture.id, stored.etag);
     // Read before enqueueing, so the answer says what completion did (queued), not how far a fast worker got.
     const view = await getCaptureStatusView(actor, capture.id);
     // The row says queued either way; if Redis is unreachable now, the worker's sweep enqueues it later.
-    if (queued) await enqueueAnalysis({ captureId: capture.id, labId: capture.labId }).catch((e: unknown) => console.error(`enqueue ${capture.id}: ${String(e)}`));
+    if (queued) await enqueueAnalysisOrLater({ captureId: capture.id, labId: capture.labId });
     if (view) return view;
   }
   const view = await getCaptureStatusView(actor, capture.id);

@@ -5,6 +5,7 @@ import { getUnitBySerial, listRatingsForRegistration } from "@/db/queries/units"
 import type { AnalysisReport } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
 import { requireUser } from "@/lib/auth/guards";
+import { getEnv } from "@/lib/server/env";
 import { presignDownload } from "@/lib/server/storage";
 import { listActivePlanSteps } from "@/db/queries/judgement";
 import { actorForUser, type Actor } from "./actor";
@@ -30,6 +31,19 @@ export type CaptureStatusView = {
 
 export const FINAL_STATES = new Set(["analysed", "rejected", "failed"]);
 
+/** Shown while a capture's analysis has not moved for longer than a worker's lock. */
+export const WORKER_SILENT_MESSAGE = "The worker stopped responding; the analysis will be resumed.";
+
+/**
+ * What to tell people about the capture's state: an analysing capture whose row has not moved for
+ * longer than the lock has lost its worker (a live one writes progress or why it waits far more
+ * often); the sweep or the stalled check will give it to another.
+ */
+export function captureStateMessage(c: { state: string; stateMessage: string | null; updatedAt: Date }, lockMs: number, now = Date.now()): string | null {
+  if (c.state === "analysing" && now - c.updatedAt.getTime() > lockMs) return WORKER_SILENT_MESSAGE;
+  return c.stateMessage;
+}
+
 export async function getCaptureStatusView(actor: Actor, captureId: string): Promise<CaptureStatusView | null> {
   const found = await getCaptureDetail(actor.scope, captureId);
   if (!found) return null;
@@ -38,7 +52,7 @@ export async function getCaptureStatusView(actor: Actor, captureId: string): Pro
   const analysis = c.state === "uploading" ? undefined : await getCurrentAnalysis(actor.scope, captureId);
   return {
     id: c.id, unitId: c.unitId, serial: found.serial, ratingId: found.ratingId, modelCode: found.modelCode, ratingTitle: found.ratingTitle,
-    state: c.state, stateMessage: c.stateMessage, progress: c.progress, attempts: c.attempts,
+    state: c.state, stateMessage: captureStateMessage(c, getEnv().WORKER_LOCK_MS), progress: c.progress, attempts: c.attempts,
     testKind: c.testKind, speedRpm: c.speedRpm,
     channelRoles: c.channelRoles, probeScales: c.probeScales, channelOffsets: c.channelOffsets, magnetTemperatureC: c.magnetTemperatureC, planStepId: c.planStepId,
     notes: c.notes, originalName: c.originalName, sizeBytes: c.sizeBytes, sha256: c.sha256,

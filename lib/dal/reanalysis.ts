@@ -1,7 +1,7 @@
 import "server-only";
 import { requeueFinishedCaptures } from "@/db/queries/captures";
 import { HttpError } from "@/lib/auth/guards";
-import { enqueueAnalysis } from "@/lib/server/queue";
+import { enqueueAnalysisOrLater } from "@/lib/server/queue";
 import type { Actor } from "./actor";
 
 /**
@@ -14,6 +14,6 @@ export async function requestReanalysis(actor: Actor, target: { captureId: strin
   const rows = await requeueFinishedCaptures(actor.scope, target);
   if ("captureId" in target && rows.length === 0) throw new HttpError(409, "This capture is not finished yet, or does not exist");
   // The rows say queued; an enqueue lost now is picked up by the worker's sweep.
-  await Promise.all(rows.map((r) => enqueueAnalysis(r).catch((e: unknown) => console.error(`enqueue ${r.captureId}: ${String(e)}`))));
+  await Promise.all(rows.map((r) => enqueueAnalysisOrLater(r)));
   return { queued: rows.length };
 }

@@ -43,9 +43,15 @@ export const envSchema = z.object({
   // How long a worker holds a job before another may take it over (stalled-job recovery), in ms.
   WORKER_LOCK_MS: int(30_000),
   // How often the worker looks for captures left queued or analysing without a live job, in s.
-  WORKER_SWEEP_INTERVAL_S: int(60),
+  WORKER_SWEEP_INTERVAL_S: int(10),
+  // How long one analysis attempt waits for a service that does not answer (database, file
+  // store) before that attempt counts as spent, in s. Such outages never end a capture.
+  WORKER_OUTAGE_WAIT_S: int(600),
   // Tries per analysis job for infrastructure errors (bad input is never retried).
   ANALYSIS_ATTEMPTS: int(5),
+  // Backpressure: the bench API answers 429 (with Retry-After) to new registrations while more
+  // captures than this wait for or are in analysis.
+  ANALYSIS_BACKLOG_LIMIT: int(2000),
   SIGN_IN_MAX_ATTEMPTS: int(8),
   SIGN_IN_WINDOW_S: int(900),
   // Attachments (uploadthing). Optional here so the worker and scripts start without them; the

@@ -38,15 +38,43 @@ export function createRedis(purpose: "queue" | "worker"): Redis {
   return redis;
 }
 
-const globalForQueue = globalThis as unknown as { emfolioQueue?: Queue<AnalysisJobData>; emfolioQueueRedis?: Redis };
+const globalForQueue = globalThis as unknown as {
+  emfolioQueue?: Queue<AnalysisJobData>; emfolioQueueRedis?: Redis; emfolioPendingEnqueues?: Map<string, AnalysisJobData>;
+};
+
+/** Jobs this process could not add (Redis down); bounded, since the worker's sweep finds them anyway. */
+const MAX_PENDING = 10_000;
+
+function pendingEnqueues(): Map<string, AnalysisJobData> {
+  globalForQueue.emfolioPendingEnqueues ??= new Map();
+  return globalForQueue.emfolioPendingEnqueues;
+}
+
+/** Adds the jobs that failed to enqueue while Redis was away, as soon as the connection is back. */
+async function retryPendingEnqueues(): Promise<void> {
+  const pending = pendingEnqueues();
+  for (const [captureId, data] of [...pending]) {
+    try {
+      await enqueueAnalysis(data);
+      pending.delete(captureId);
+    } catch {
+      return;
+    }
+  }
+}
 
 export function getAnalysisQueue(): Queue<AnalysisJobData> {
   if (globalForQueue.emfolioQueue) return globalForQueue.emfolioQueue;
-  // Producers fail fast when Redis is down; the capture stays queued in the database for the sweep.
+  // Producers fail fast when Redis is down; the capture stays queued in the database, and the job
+  // is added when this connection is ready again (or by the worker's sweep, whichever comes first).
   const connection = createRedis("queue");
+  connection.on("ready", () => void retryPendingEnqueues());
   globalForQueue.emfolioQueueRedis = connection;
-  globalForQueue.emfolioQueue = new Queue<AnalysisJobData>(ANALYSIS_QUEUE, { connection, prefix: getEnv().QUEUE_PREFIX });
-  return globalForQueue.emfolioQueue;
+  const queue = new Queue<AnalysisJobData>(ANALYSIS_QUEUE, { connection, prefix: getEnv().QUEUE_PREFIX });
+  // One line per problem (the connection's own listener above says which); no stack dumps in the web log.
+  queue.on("error", () => undefined);
+  globalForQueue.emfolioQueue = queue;
+  return queue;
 }
 
 /**
@@ -66,11 +94,29 @@ export async function enqueueAnalysis(data: AnalysisJobData): Promise<"added" | 
   return "added";
 }
 
+/** enqueueAnalysis for request paths: never throws; a job Redis did not take is retried on reconnect. */
+export async function enqueueAnalysisOrLater(data: AnalysisJobData): Promise<"added" | "already-live" | "later"> {
+  try {
+    return await enqueueAnalysis(data);
+  } catch (err) {
+    console.error(`enqueue ${data.captureId} deferred: ${err instanceof Error ? err.message : String(err)}`);
+    const pending = pendingEnqueues();
+    if (pending.size < MAX_PENDING) pending.set(data.captureId, data);
+    return "later";
+  }
+}
+
 /** The state of a capture's job as Redis sees it ("missing" after a flush or once removed). */
 export async function getAnalysisJobState(captureId: string): Promise<{ state: string; failedReason?: string }> {
   const job = await getAnalysisQueue().getJob(analysisJobId(captureId));
   if (!job) return { state: "missing" };
   return { state: await job.getState(), failedReason: job.failedReason };
+}
+
+/** Pings Redis over the producer's own connection (readiness); fails fast while it is down. */
+export async function pingQueue(): Promise<void> {
+  getAnalysisQueue();
+  await globalForQueue.emfolioQueueRedis?.ping();
 }
 
 export async function closeAnalysisQueue(): Promise<void> {

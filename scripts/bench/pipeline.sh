@@ -25,6 +25,9 @@ node_modules/.bin/next start -H 127.0.0.1 -p "$PORT" >.data/log/bench-web.log 2>
 web=$!
 trap 'kill -TERM "$web" 2>/dev/null || true; wait "$web" 2>/dev/null || true; stop_services_started_here' EXIT
 wait_for_web "http://127.0.0.1:$PORT"
+echo
+echo "== health probes: 50 concurrent connections, 10 s each, loopback"
+node --import tsx scripts/bench/health-load.ts --base-url "http://127.0.0.1:$PORT"
 args=("$@")
 ((${#args[@]} > 0)) || args=(--captures 200 --rows 100000 --workers 1,2)
 echo

@@ -1,7 +1,7 @@
 # shellcheck shell=bash
 # shellcheck disable=SC2034 # variables here are used by the files that source this one
 # Shared settings and helpers for scripts/services.sh and its helpers.
-# Sourced, never executed. Reads only the EMFOLIO_*_PORT variables (with
+# Sourced, never executed. Reads only the EMFOLIO_*_PORT variables and EMFOLIO_DATA_DIR (with
 # defaults); nothing here needs the app's .env.
 
 SERVICES_DIR="$(cd "$(dirname "${BASH_SOURCE[0]}")" && pwd)"
@@ -13,7 +13,8 @@ EMFOLIO_S3_PORT="${EMFOLIO_S3_PORT:-45690}"
 EMFOLIO_SMTP_PORT="${EMFOLIO_SMTP_PORT:-2529}"
 EMFOLIO_UPLOADTHING_PORT="${EMFOLIO_UPLOADTHING_PORT:-45700}"
 
-DATA_DIR="$PROJECT_ROOT/.data"
+# EMFOLIO_DATA_DIR gives a second set of services (other ports) a folder of its own (the fault script).
+DATA_DIR="${EMFOLIO_DATA_DIR:-$PROJECT_ROOT/.data}"
 RUN_DIR="$DATA_DIR/run"
 LOG_DIR="$DATA_DIR/log"
 

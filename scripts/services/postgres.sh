@@ -35,8 +35,10 @@ pg_resolve_paths() {
     PG_LOG_REAL="$PG_LOG"
     return
   fi
-  local base
-  base="/var/lib/emfolio/$(printf '%s' "$PROJECT_ROOT" | sha1sum | cut -c1-12)"
+  local base key="$PROJECT_ROOT"
+  # A second set of services (EMFOLIO_DATA_DIR) gets its own cluster folder.
+  [[ "$DATA_DIR" == "$PROJECT_ROOT/.data" ]] || key="$DATA_DIR"
+  base="/var/lib/emfolio/$(printf '%s' "$key" | sha1sum | cut -c1-12)"
   say "postgres: user postgres cannot reach $DATA_DIR; keeping the cluster in $base (symlinked from .data)"
   mkdir -p "$base/data"
   chown postgres:postgres "$base" "$base/data"

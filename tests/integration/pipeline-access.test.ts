@@ -6,9 +6,9 @@ import { GET as listRoute, POST as registerRoute } from "@/app/api/v1/captures/r
 import { GET as getUnitRoute } from "@/app/api/v1/units/[serial]/route";
 import { actorForUser } from "@/lib/dal/actor";
 import { getCaptureStatusView } from "@/lib/dal/captures";
-import { headObject } from "@/lib/server/storage";
+import { captureObjectKey, headObject } from "@/lib/server/storage";
 import { makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
-import { closeConnections, createOtherLab, createStationToken, demoLabStation, registerViaApi, uploadViaApi } from "./pipeline-support";
+import { closeConnections, createOtherLab, createStationToken, demoLabStation, registerViaApi, unitId, uploadViaApi } from "./pipeline-support";
 
 let labId: string;
 let token: string;
@@ -54,14 +54,16 @@ describe("registerCapture via the bench API: idempotency and bad input", () => {
     expect(badRating.body.error).toMatch(/Unknown rating/);
   });
 
-  it("binary content is refused at completion: 415, the object deleted, the capture marked rejected", async () => {
+  it("binary content is refused at completion: 415, the object and the row deleted, so the same bytes can be registered again", async () => {
     const bytes = `PK\u0003\u0004\u0000\u0000binary zip ${run}, not a capture`.repeat(50);
     const { id, completeStatus, complete } = await uploadViaApi(token, bytes, { unitSerial: "KG45-260308", fileName: "renamed.csv" });
     expect(completeStatus).toBe(415);
-    expect(complete.error).toMatch(/binary data/);
-    const row = await getCaptureDetail({ kind: "lab", labId }, id);
-    expect(row?.capture.state).toBe("rejected");
-    expect(await headObject(row?.capture.objectKey ?? "")).toBeNull();
+    expect(complete.error).toMatch(/binary data.*register the file again/);
+    expect(await getCaptureDetail({ kind: "lab", labId }, id)).toBeUndefined();
+    expect(await headObject(captureObjectKey(labId, await unitId(labId, "KG45-260308"), id))).toBeNull();
+    const again = await registerViaApi(token, bytes, { unitSerial: "KG45-260308", fileName: "renamed.csv" });
+    expect(again.status).toBe(201);
+    expect(again.body.upload).not.toBeNull();
   });
 });
 

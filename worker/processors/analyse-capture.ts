@@ -1,15 +1,21 @@
 import { UnrecoverableError, type SandboxedJob } from "bullmq";
 import { isCaptureRejection } from "@/lib/analysis";
 import { recordAnalysis } from "@/db/queries/analyses";
-import { claimCaptureForAnalysis, setCaptureProgress, setCaptureState } from "@/db/queries/captures";
+import { claimCaptureForAnalysis, noteCaptureWaiting, setCaptureProgress, setCaptureState } from "@/db/queries/captures";
 import type { Scope } from "@/db/queries/scope";
+import { getEnv } from "@/lib/server/env";
+import { logDetail, outageSentence, ServiceOutage, talkingTo } from "@/lib/server/outage";
 import type { AnalysisJobData } from "@/lib/server/queue";
 import { refreshUnitPlanState } from "@/db/queries/unit-plan";
 import { ConfigurationProblem, loadJudgement } from "@/lib/server/judgement";
+import { rideOutages } from "../outage-ride";
+import { failureMessage } from "./messages";
 import { runAnalysis } from "./run-analysis";
 
 // Runs in a sandboxed child process (see worker/index.ts), so parsing and analysis never block
-// the parent's lock renewal. The job carries ids only; everything else is read from the database.
+// the parent's lock renewal. The job carries ids only; everything else is read from the database,
+// which is also where progress goes (the child never talks to Redis, so a Redis restart cannot
+// fail a running analysis).
 
 const PROGRESS_EVERY_MS = 500;
 
@@ -21,7 +27,13 @@ export type AnalyseOutcome = { outcome: "analysed" | "skipped" | "superseded" };
 export default async function analyseCaptureJob(job: SandboxedJob<AnalysisJobData>): Promise<AnalyseOutcome> {
   const { captureId, labId } = job.data;
   const scope: Scope = { kind: "lab", labId };
-  const claimed = await claimCaptureForAnalysis(scope, captureId);
+  const log = (line: string) => console.error(`${new Date().toISOString()} job ${job.id}: ${line}`);
+  const ride = { maxWaitMs: getEnv().WORKER_OUTAGE_WAIT_S * 1000, log,
+    // The page says why nothing moves (and the row's update time shows a live worker).
+    onWait: (outage: ServiceOutage) => noteCaptureWaiting(scope, captureId, outageSentence(outage.service, "analysis")) };
+  const db = <T>(work: () => Promise<T>) => talkingTo("database", work);
+
+  const claimed = await rideOutages("claim", () => db(() => claimCaptureForAnalysis(scope, captureId)), ride);
   // Already analysed, rejected or failed (or deleted): nothing to do, and nothing to retry.
   if (!claimed) return { outcome: "skipped" };
 
@@ -31,40 +43,41 @@ export default async function analyseCaptureJob(job: SandboxedJob<AnalysisJobDat
     const now = Date.now();
     if (now - lastReport < PROGRESS_EVERY_MS) return;
     lastReport = now;
-    pending = pending.then(async () => {
-      await setCaptureProgress(scope, captureId, percent);
-      await job.updateProgress(Math.round(percent));
-    }).catch(() => undefined);
+    pending = pending.then(() => setCaptureProgress(scope, captureId, percent)).catch(() => undefined);
   };
 
   try {
-    const judgement = await loadJudgement(claimed.rating, claimed.capture);
-    const analysis = await runAnalysis(claimed.capture, judgement, onProgress);
+    const judgement = await rideOutages("load the judgement", () => db(() => loadJudgement(claimed.rating, claimed.capture)), ride);
+    const analysis = await rideOutages("read and analyse", () => runAnalysis(claimed.capture, judgement, onProgress), ride);
     await pending;
-    const stored = await recordAnalysis(scope, analysis);
-    if (stored) await refreshUnitPlanState(scope, claimed.unit.id);
+    const stored = await rideOutages("store the report", () => db(() => recordAnalysis(scope, analysis)), ride);
+    if (stored) await rideOutages("refresh the unit's plan", () => db(() => refreshUnitPlanState(scope, claimed.unit.id)), ride);
     return { outcome: stored ? "analysed" : "superseded" };
   } catch (err) {
     await pending;
-    const message = err instanceof Error ? err.message : String(err);
     if (isCaptureRejection(err)) {
       // Bad input is final: the engine's message is what the operator sees.
-      await setCaptureState(scope, captureId, "rejected", ["analysing"], { stateMessage: message, progress: 0 });
-      throw new UnrecoverableError(message);
+      await db(() => setCaptureState(scope, captureId, "rejected", ["analysing"], { stateMessage: err.message, progress: 0 }));
+      throw new UnrecoverableError(err.message);
     }
     if (err instanceof ConfigurationProblem) {
-      await setCaptureState(scope, captureId, "failed", ["analysing"], { stateMessage: message, progress: 0 });
-      throw new UnrecoverableError(message);
+      await db(() => setCaptureState(scope, captureId, "failed", ["analysing"], { stateMessage: err.message, progress: 0 }));
+      throw new UnrecoverableError(err.message);
     }
+    // First lines and the call sites only: a failed query's full text carries the whole report as parameters.
+    const where = err instanceof Error ? (err.stack ?? "").split("\n").filter((l) => l.startsWith("    at ")).slice(0, 8).join("\n") : "";
+    log(`attempt ${job.attemptsMade + 1} failed: ${logDetail(err)}${where ? `\n${where}` : ""}`);
     const attempt = job.attemptsMade + 1;
     const allowed = job.opts.attempts ?? 1;
-    const final = attempt >= allowed;
+    // An outage longer than the ride never ends a capture: it goes back to queued, and the sweep
+    // enqueues it again once the service answers.
+    const final = attempt >= allowed && !(err instanceof ServiceOutage);
     await setCaptureState(scope, captureId, final ? "failed" : "queued", ["analysing"], {
-      progress: 0,
-      stateMessage: final
-        ? `Analysis failed after ${attempt} attempts (${message}). It can be re-run once the cause is fixed.`
-        : `Attempt ${attempt} of ${allowed} failed (${message}); retrying shortly.`,
+      progress: 0, stateMessage: failureMessage(err, attempt, allowed),
     }).catch(() => undefined);
-    throw err;
+    // The job's failed reason is the plain sentence too (it is what the sweep and the parent read).
+    const plain = new Error(failureMessage(err, attempt, allowed));
+    plain.name = err instanceof ServiceOutage ? "ServiceOutage" : "AnalysisError";
+    throw plain;
   }
 }

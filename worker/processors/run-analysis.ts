@@ -7,6 +7,7 @@ import type { NewAnalysis } from "@/db/queries/analyses";
 import type { Capture } from "@/db/schema";
 import { getEnv } from "@/lib/server/env";
 import { ConfigurationProblem, toleranceDigest, type Judgement } from "@/lib/server/judgement";
+import { talkingTo } from "@/lib/server/outage";
 import { isPreconditionFailed, openObjectStream } from "@/lib/server/storage";
 
 /** Points per channel in the stored waveform preview: enough for a full-width plot, small as JSON. */
@@ -48,13 +49,16 @@ export async function runAnalysis(capture: Capture, judgement: Judgement, onProg
   const hash = createHash("sha256");
   let read = 0;
   try {
-    const stream = await openObjectStream(capture.objectKey, capture.objectEtag ?? undefined);
-    for await (const chunk of stream as AsyncIterable<Uint8Array>) {
-      hash.update(chunk);
-      parser.push(chunk);
-      read += chunk.length;
-      onProgress((80 * read) / Math.max(1, capture.sizeBytes));
-    }
+    // A store that stops answering mid-read is an outage (retried from the start), not a bad file.
+    await talkingTo("file store", async () => {
+      const stream = await openObjectStream(capture.objectKey, capture.objectEtag ?? undefined);
+      for await (const chunk of stream as AsyncIterable<Uint8Array>) {
+        hash.update(chunk);
+        parser.push(chunk);
+        read += chunk.length;
+        onProgress((80 * read) / Math.max(1, capture.sizeBytes));
+      }
+    });
   } catch (err) {
     if (isPreconditionFailed(err)) {
       throw new CaptureRejection("object-changed", "The stored file changed after its upload was completed: upload it again as a new capture");

@@ -1,10 +1,10 @@
-import { checkServices } from "@/lib/server/preflight";
+import { getReadiness } from "@/lib/server/readiness";
 
 export const dynamic = "force-dynamic";
 
-// For load balancers and the deployment healthcheck: service names and up/down only, no addresses.
+// The readiness answer under its older address (deployments that probe /api/health keep working);
+// /api/health/live and /api/health/ready are the two probes to use.
 export async function GET() {
-  const results = await checkServices();
-  const ok = results.every((r) => r.ok);
-  return Response.json({ ok, services: Object.fromEntries(results.map((r) => [r.service, r.ok ? "up" : "down"])) }, { status: ok ? 200 : 503 });
+  const readiness = await getReadiness();
+  return Response.json({ ok: readiness.ready, services: readiness.services }, { status: readiness.ready ? 200 : 503, headers: { "Cache-Control": "no-store" } });
 }

@@ -1,0 +1,11 @@
+#!/usr/bin/env bash
+# npm run bench [-- --faults | --sizes ... ]
+#   (no option)   the engine against pandas + numpy, then the pipeline, the health probes under load and the 1 GiB capture
+#   --faults      only the full fault run (PostgreSQL 60 s, object store 60 s, Redis 30 s down, worker kill -9)
+set -euo pipefail
+cd "$(dirname "${BASH_SOURCE[0]}")/../.."
+if [[ "${1:-}" == "--faults" ]]; then
+  exec bash scripts/faults/run.sh
+fi
+node_modules/.bin/tsx scripts/bench/index.ts "$@"
+bash scripts/bench/pipeline.sh
