@@ -1,7 +1,7 @@
 "use client";
 
 import { useCallback, useState } from "react";
-import { sniffCaptureHeader, type ChannelRole } from "@/lib/analysis";
+import { sniffCaptureBytes, type ChannelRole } from "@/lib/analysis";
 import { CAPTURE_FILE_NAME, captureRegistrationSchema, type CaptureRegistration } from "@/lib/captures/input-schemas";
 import { postComplete, postRegistration } from "./fetchers";
 import { putCaptureObject } from "./put-object";
@@ -38,8 +38,7 @@ async function describeFile(file: File, maxBytes: number): Promise<Pick<FileEntr
   if (file.size === 0) return refuse("The file is empty");
   if (file.size > maxBytes) return refuse(`The file is ${mib(file.size)}: the limit is ${mib(maxBytes)}`);
   try {
-    const head = await file.slice(0, SNIFF_BYTES).text();
-    const sniffed = sniffCaptureHeader(head);
+    const sniffed = sniffCaptureBytes(new Uint8Array(await file.slice(0, SNIFF_BYTES).arrayBuffer()));
     return { channels: Object.keys(sniffed.suggestedRoles), roles: sniffed.suggestedRoles, phase: "ready", message: null };
   } catch (err) {
     return refuse(err instanceof Error ? err.message : "The header row could not be read");

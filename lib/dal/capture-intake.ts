@@ -4,7 +4,7 @@ import { getCaptureDetail, insertCaptureOnce, markCaptureQueued, setCaptureState
 import { getStation } from "@/db/queries/stations";
 import { getRatingForRegistration, getUnitBySerial, insertUnitOnce } from "@/db/queries/units";
 import type { Capture } from "@/db/schema";
-import { CaptureRejection, sniffCaptureHeader } from "@/lib/analysis";
+import { CaptureRejection, sniffCaptureBytes } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
 import { captureRegistrationSchema, type completeUploadSchema, type UploadPlan } from "@/lib/captures/input-schemas";
 import { getEnv } from "@/lib/server/env";
@@ -115,12 +115,12 @@ export async function completeCaptureUpload(actor: Actor, captureId: string, inp
       await refuse(scope, capture, 400, `The uploaded file has ${stored.sizeBytes} bytes, but ${capture.sizeBytes} were registered: upload it again`, true);
     }
     const head = await readObjectHead(capture.objectKey, Math.min(HEADER_PROBE_BYTES, capture.sizeBytes));
-    if (head.includes(0)) await refuse(scope, capture, 415, "The file holds binary data, not CSV text", false);
     try {
-      sniffCaptureHeader(new TextDecoder().decode(head));
+      // The byte-order mark picks UTF-8 or UTF-16; binary data and UTF-16 without one are refused.
+      sniffCaptureBytes(head);
     } catch (err) {
       if (!(err instanceof CaptureRejection)) throw err;
-      await refuse(scope, capture, 422, err.message, false);
+      await refuse(scope, capture, err.code === "binary" ? 415 : 422, err.message, false);
     }
     const queued = await markCaptureQueued(scope, capture.id, stored.etag);
     // Read before enqueueing, so the answer says what completion did (queued), not how far a fast worker got.
