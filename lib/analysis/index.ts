@@ -5,6 +5,7 @@ export { CHANNEL_ROLES } from "./types";
 export type { ChannelRole, ParsedCapture, ParseOptions, CaptureChannel, ChannelCalibration, QualityWarning, SiUnit } from "./types";
 export { createCaptureParser, parseCaptureText } from "./capture-parser";
 export { sniffCaptureBytes, sniffCaptureHeader, type SniffedHeader } from "./header-sniff";
+export { headerSignature } from "./header-signature";
 export { MAX_COLUMNS } from "./head-lines";
 export { suggestChannelRoles } from "./roles";
 export { analyseCapture, judgeReport } from "./analyse";

@@ -4,7 +4,7 @@ import { getCaptureDetail, insertCaptureOnce, markCaptureQueued, setCaptureState
 import { getStation } from "@/db/queries/stations";
 import { getRatingForRegistration, getUnitBySerial, insertUnitOnce } from "@/db/queries/units";
 import type { Capture } from "@/db/schema";
-import { CaptureRejection, sniffCaptureBytes } from "@/lib/analysis";
+import { CaptureRejection, sniffCaptureBytes, type SniffedHeader } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
 import { captureRegistrationSchema, type completeUploadSchema, type UploadPlan } from "@/lib/captures/input-schemas";
 import { getEnv } from "@/lib/server/env";
@@ -16,6 +16,7 @@ import {
 import type { z } from "zod";
 import { requireUploader, type Actor } from "./actor";
 import { getCaptureStatusView, type CaptureStatusView } from "./captures";
+import { rememberOrApplyProfile } from "./import-profiles";
 import { readJson } from "./request";
 
 type Registration = z.output<typeof captureRegistrationSchema>;
@@ -59,6 +60,7 @@ export async function registerCapture(actor: Actor, input: Registration): Promis
   const { capture, duplicate } = await insertCaptureOnce({
     id, unitId: unit.id, labId: scope.labId, stationId, uploadedById: actor.userId, stationKeyId: actor.stationKeyId,
     testKind: input.testKind, speedRpm: input.speedRpm ?? null, channelRoles: input.channelRoles, probeScales: input.probeScales,
+    channelOffsets: input.channelOffsets, sampleRateHz: input.sampleRateHz ?? null,
     notes: input.notes, originalName: input.fileName, objectKey: captureObjectKey(scope.labId, unit.id, id),
     sizeBytes: input.sizeBytes, sha256: input.sha256,
   });
@@ -115,13 +117,15 @@ export async function completeCaptureUpload(actor: Actor, captureId: string, inp
       await refuse(scope, capture, 400, `The uploaded file has ${stored.sizeBytes} bytes, but ${capture.sizeBytes} were registered: upload it again`, true);
     }
     const head = await readObjectHead(capture.objectKey, Math.min(HEADER_PROBE_BYTES, capture.sizeBytes));
+    let sniffed: SniffedHeader | null = null;
     try {
       // The byte-order mark picks UTF-8 or UTF-16; binary data and UTF-16 without one are refused.
-      sniffCaptureBytes(head);
+      sniffed = sniffCaptureBytes(head);
     } catch (err) {
       if (!(err instanceof CaptureRejection)) throw err;
       await refuse(scope, capture, err.code === "binary" ? 415 : 422, err.message, false);
     }
+    if (sniffed) await rememberOrApplyProfile(actor, capture, sniffed);
     const queued = await markCaptureQueued(scope, capture.id, stored.etag);
     // Read before enqueueing, so the answer says what completion did (queued), not how far a fast worker got.
     const view = await getCaptureStatusView(actor, capture.id);
