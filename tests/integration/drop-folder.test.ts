@@ -39,7 +39,7 @@ async function toResponse(req: http.IncomingMessage): Promise<Response> {
 function dropFolder(folder: string, ...args: string[]): Promise<{ status: number | null; output: string }> {
   return new Promise((resolve) => {
     const child = spawn(process.execPath, ["scripts/drop-folder.mjs", "--folder", folder, "--server", base, "--settle", "0.3", "--poll", "0.2", "--once", ...args], {
-      env: { PATH: process.env.PATH ?? "", EMFOLIO_STATION_KEY: token },
+      env: { PATH: process.env.PATH ?? "", NODE_ENV: "test", EMFOLIO_STATION_KEY: token },
       stdio: ["ignore", "pipe", "pipe"],
     });
     let output = "";
