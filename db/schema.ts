@@ -195,6 +195,8 @@ export const captures = pgTable(
     probeScales: jsonb("probe_scales").$type<Record<string, number>>().notNull().default({}),
     /** Added after scaling, in volts or amps, per column header. */
     channelOffsets: jsonb("channel_offsets").$type<Record<string, number>>().notNull().default({}),
+    /** Sample rate given by the operator (or the bench's import profile) for files without a time column, Hz. */
+    sampleRateHz: doublePrecision("sample_rate_hz"),
     /** Magnet temperature during a back-EMF test, °C, for Ke at the rating's reference temperature. */
     magnetTemperatureC: doublePrecision("magnet_temperature_c"),
     notes: text("notes").notNull().default(""),

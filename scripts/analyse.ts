@@ -1,17 +1,12 @@
 /**
  * Command-line analysis for bench PCs and scripts.
- *   npm run analyse -- <file.csv> [--channel "<header>=<role>"]... [--speed-rpm N] [--poles N]
- *     [--rating rating.json] [--tolerance <preset id | profile.json>] [--harmonics N]
- *     [--sample-rate HZ] [--probe "<header>=<ratio>"]... [--offset "<header>=<SI value>"]...
- *     [--magnet-temp C [--reference-temp C] [--magnet ndfeb|smco|ferrite]]
- *     [--iec-groups] [--worst-cycle] [--json]
+ *   npm run analyse -- <file.csv> [options]     (npm run analyse -- --help lists them, with units)
  * Exit 0 on success, 2 when the input (file or arguments) is rejected, 1 on an internal error.
  * With --json the script writes the report alone; `npm run -s analyse -- …` keeps npm's own banner
  * off stdout too.
  */
 import { readFile } from "node:fs/promises";
 import {
-  CHANNEL_ROLES,
   CaptureRejection,
   analyseCapture,
   analysisOptionsSchema,
@@ -21,117 +16,12 @@ import {
   profileFromPreset,
   type PresetId,
   type Rating,
-  type AnalysisOptions,
   type AnalysisReport,
-  type ChannelCalibration,
-  type ChannelRole,
   type ToleranceProfile,
 } from "@/lib/analysis";
 import { readCaptureFile } from "@/lib/server/capture-reader";
+import { HELP, parseArguments, UsageError } from "./analyse-args";
 import { formatTable } from "./bench/table";
-
-class UsageError extends Error {}
-
-interface CliArguments {
-  file: string;
-  json: boolean;
-  sampleRateHz?: number;
-  calibration: Record<string, ChannelCalibration>;
-  magnet: { measuredC?: number; referenceC?: number; material?: string };
-  options: AnalysisOptions;
-  ratingPath?: string;
-  tolerance?: string;
-}
-
-function positiveNumber(flag: string, text: string | undefined): number {
-  const value = Number(text);
-  if (text === undefined || !Number.isFinite(value) || value <= 0) throw new UsageError(`${flag} needs a positive number, got ${text ?? "nothing"}`);
-  return value;
-}
-
-function parseArguments(argv: string[]): CliArguments {
-  const roles: Record<string, ChannelRole> = {};
-  const parsed: CliArguments = { file: "", json: false, options: {}, calibration: {}, magnet: {} };
-  const headerValue = (flag: string, spec: string | undefined): [string, number] => {
-    const split = (spec ?? "").lastIndexOf("=");
-    const value = Number((spec ?? "").slice(split + 1));
-    if (split <= 0 || !Number.isFinite(value)) throw new UsageError(`${flag} needs "<column header>=<number>", got "${spec ?? ""}"`);
-    return [(spec ?? "").slice(0, split), value];
-  };
-  for (let i = 0; i < argv.length; i++) {
-    const arg = argv[i] as string;
-    const next = (): string | undefined => argv[++i];
-    switch (arg) {
-      case "--json":
-        parsed.json = true;
-        break;
-      case "--channel": {
-        const spec = next() ?? "";
-        const split = spec.lastIndexOf("=");
-        const role = spec.slice(split + 1) as ChannelRole;
-        if (split <= 0 || !CHANNEL_ROLES.includes(role)) {
-          throw new UsageError(`--channel needs "<column header>=<role>" with role one of ${CHANNEL_ROLES.join(", ")}; got "${spec}"`);
-        }
-        roles[spec.slice(0, split)] = role;
-        break;
-      }
-      case "--speed-rpm":
-        parsed.options.speedRpm = positiveNumber(arg, next());
-        break;
-      case "--poles":
-        parsed.options.poles = positiveNumber(arg, next());
-        break;
-      case "--harmonics":
-        parsed.options.harmonics = positiveNumber(arg, next());
-        break;
-      case "--sample-rate":
-        parsed.sampleRateHz = positiveNumber(arg, next());
-        break;
-      case "--probe": {
-        const [header, ratio] = headerValue(arg, next());
-        parsed.calibration[header] = { ...parsed.calibration[header], scale: ratio };
-        break;
-      }
-      case "--offset": {
-        const [header, offset] = headerValue(arg, next());
-        parsed.calibration[header] = { ...parsed.calibration[header], offset };
-        break;
-      }
-      case "--rating":
-        parsed.ratingPath = next();
-        break;
-      case "--tolerance":
-        parsed.tolerance = next();
-        break;
-      case "--magnet-temp":
-        parsed.magnet.measuredC = Number(next());
-        break;
-      case "--reference-temp":
-        parsed.magnet.referenceC = Number(next());
-        break;
-      case "--magnet":
-        parsed.magnet.material = next();
-        break;
-      case "--iec-groups":
-        parsed.options.groupingIec = true;
-        break;
-      case "--worst-cycle":
-        parsed.options.deviationBasis = "worst-cycle";
-        break;
-      default:
-        if (arg.startsWith("--")) throw new UsageError(`Unknown option ${arg}`);
-        if (parsed.file) throw new UsageError(`Only one capture file, got "${parsed.file}" and "${arg}"`);
-        parsed.file = arg;
-    }
-  }
-  if (!parsed.file) throw new UsageError("Give a capture file: npm run analyse -- <file.csv> [options]");
-  if (Object.keys(roles).length > 0) parsed.options.channelRoles = roles;
-  if (parsed.magnet.measuredC !== undefined) {
-    // Checked with the rest of the options by analysisOptionsSchema.
-    parsed.options.magnetTemperature = parsed.magnet as NonNullable<AnalysisOptions["magnetTemperature"]>;
-  }
-  return parsed;
-}
 
 async function readJson(path: string, what: string): Promise<unknown> {
   try {
@@ -213,6 +103,10 @@ function printSummary(file: string, report: AnalysisReport): void {
 async function main(): Promise<number> {
   try {
     const args = parseArguments(process.argv.slice(2));
+    if (args.help) {
+      process.stdout.write(`${HELP}\n`);
+      return 0;
+    }
     if (args.ratingPath) {
       const rating = ratingSchema.safeParse(await readJson(args.ratingPath, "rating"));
       if (!rating.success) throw new UsageError(`Rating ${args.ratingPath} is not valid: ${rating.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}`);

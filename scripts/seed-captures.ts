@@ -22,7 +22,7 @@ async function main() {
     const body = renderDemoCsv({ ...c.wave, seed: 1000 + i });
     const bytes = Buffer.from(body, "utf8");
     const { capture, upload, duplicate } = await registerCapture(actor, {
-      unitSerial: c.serial, testKind: c.testKind, speedRpm: c.speedRpm, channelRoles: c.roles as never, probeScales: {},
+      unitSerial: c.serial, testKind: c.testKind, speedRpm: c.speedRpm, channelRoles: c.roles as never, probeScales: {}, channelOffsets: {},
       notes: c.notes, fileName: `${c.serial}-${c.testKind}.csv`, sizeBytes: bytes.length,
       sha256: createHash("sha256").update(bytes).digest("hex"),
     });

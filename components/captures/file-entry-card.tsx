@@ -35,7 +35,7 @@ export function FileEntryCard({ entry, onChange, onRemove }: {
       {entry.channels.length > 0 ? (
         <table className="mt-3 w-full text-sm">
           <thead className="text-left text-xs uppercase tracking-wide text-ink-600">
-            <tr><th className="py-1 pr-3">Column</th><th className="py-1 pr-3">Role</th><th className="py-1">Probe scale ×</th></tr>
+            <tr><th className="py-1 pr-3">Column</th><th className="py-1 pr-3">Role</th><th className="py-1 pr-3">Probe scale ×</th><th className="py-1">Offset (V or A)</th></tr>
           </thead>
           <tbody>
             {entry.channels.map((ch) => (
@@ -48,9 +48,14 @@ export function FileEntryCard({ entry, onChange, onRemove }: {
                     {CHANNEL_ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
                   </select>
                 </td>
-                <td className="py-1">
+                <td className="py-1 pr-3">
                   <input aria-label={`Probe scale of ${ch}`} disabled={!editable} inputMode="decimal" placeholder="1"
                     value={entry.scales[ch] ?? ""} onChange={(e) => onChange({ scales: { ...entry.scales, [ch]: e.target.value } })}
+                    className="w-24 rounded border border-ink-200 px-2 py-1" />
+                </td>
+                <td className="py-1">
+                  <input aria-label={`Offset of ${ch}`} disabled={!editable} inputMode="decimal" placeholder="0"
+                    value={entry.offsets[ch] ?? ""} onChange={(e) => onChange({ offsets: { ...entry.offsets, [ch]: e.target.value } })}
                     className="w-24 rounded border border-ink-200 px-2 py-1" />
                 </td>
               </tr>
@@ -58,6 +63,14 @@ export function FileEntryCard({ entry, onChange, onRemove }: {
           </tbody>
         </table>
       ) : null}
+      {entry.needsRate ? (
+        <label className="mt-2 flex items-center gap-2 text-sm">
+          <span>Sample rate (Hz): the file gives no time base</span>
+          <input aria-label="Sample rate in Hz" disabled={!editable} inputMode="decimal" value={entry.sampleRate}
+            onChange={(e) => onChange({ sampleRate: e.target.value })} className="w-32 rounded border border-ink-200 px-2 py-1" />
+        </label>
+      ) : null}
+      {entry.profileNote ? <p data-testid="import-profile-note" className="mt-2 text-xs text-ink-600">{entry.profileNote}</p> : null}
       {entry.phase === "hashing" ? <ProgressBar fraction={entry.fraction} label="Checking file" /> : null}
       {entry.phase === "uploading" || entry.phase === "completing" || entry.phase === "sent" ? <ProgressBar fraction={entry.fraction} label="Upload" /> : null}
       {entry.message ? (

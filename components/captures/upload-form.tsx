@@ -40,7 +40,7 @@ function UploadFormInner({ options }: { options: UploadFormOptions }) {
   const onDrop = (e: DragEvent) => {
     e.preventDefault();
     setDragging(false);
-    void queue.addFiles(Array.from(e.dataTransfer.files));
+    void queue.addFiles(Array.from(e.dataTransfer.files), stationId || undefined);
   };
 
   const onSubmit = async (e: FormEvent) => {
@@ -113,7 +113,7 @@ function UploadFormInner({ options }: { options: UploadFormOptions }) {
         <label className="mt-3 inline-block cursor-pointer rounded-md bg-white px-4 py-2 font-semibold ring-1 ring-ink-200 hover:bg-ink-100">
           Choose files
           <input type="file" multiple accept=".csv,.txt,.tsv,text/csv" className="sr-only" aria-label="Capture files"
-            onChange={(e) => { void queue.addFiles(Array.from(e.target.files ?? [])); e.target.value = ""; }} />
+            onChange={(e) => { void queue.addFiles(Array.from(e.target.files ?? []), stationId || undefined); e.target.value = ""; }} />
         </label>
       </div>
 

@@ -1,9 +1,10 @@
 "use client";
 
 import { useCallback, useState } from "react";
-import { sniffCaptureHeader, type ChannelRole } from "@/lib/analysis";
+import { sniffCaptureBytes, type ChannelRole } from "@/lib/analysis";
 import { CAPTURE_FILE_NAME, captureRegistrationSchema, type CaptureRegistration } from "@/lib/captures/input-schemas";
 import { postComplete, postRegistration } from "./fetchers";
+import { fetchPrefill, signatureOf } from "./import-profile-prefill";
 import { putCaptureObject } from "./put-object";
 import { sha256OfBlob } from "./sha256";
 
@@ -20,6 +21,12 @@ export type FileEntry = {
   channels: string[];
   roles: Record<string, ChannelRole>;
   scales: Record<string, string>;
+  offsets: Record<string, string>;
+  /** Hz, for a file with no time column or a sample-index column without a stated rate. */
+  sampleRate: string;
+  needsRate: boolean;
+  signature: string | null;
+  profileNote: string | null;
   phase: FilePhase;
   fraction: number;
   message: string | null;
@@ -32,15 +39,17 @@ export type BatchMeta = Omit<CaptureRegistration, "channelRoles" | "probeScales"
 
 const mib = (bytes: number) => `${(bytes / 1024 ** 2).toFixed(1)} MiB`;
 
-async function describeFile(file: File, maxBytes: number): Promise<Pick<FileEntry, "channels" | "roles" | "phase" | "message">> {
-  const refuse = (message: string) => ({ channels: [], roles: {}, phase: "error" as const, message });
+type Described = Pick<FileEntry, "channels" | "roles" | "phase" | "message" | "needsRate" | "signature">;
+
+async function describeFile(file: File, maxBytes: number): Promise<Described> {
+  const refuse = (message: string) => ({ channels: [], roles: {}, phase: "error" as const, message, needsRate: false, signature: null });
   if (!CAPTURE_FILE_NAME.test(file.name)) return refuse("Only CSV exports are accepted (.csv, .txt or .tsv)");
   if (file.size === 0) return refuse("The file is empty");
   if (file.size > maxBytes) return refuse(`The file is ${mib(file.size)}: the limit is ${mib(maxBytes)}`);
   try {
-    const head = await file.slice(0, SNIFF_BYTES).text();
-    const sniffed = sniffCaptureHeader(head);
-    return { channels: Object.keys(sniffed.suggestedRoles), roles: sniffed.suggestedRoles, phase: "ready", message: null };
+    const sniffed = sniffCaptureBytes(new Uint8Array(await file.slice(0, SNIFF_BYTES).arrayBuffer()));
+    const needsRate = sniffed.timeColumn === null || (sniffed.timeIsIndex && sniffed.statedSampleRateHz === null);
+    return { channels: Object.keys(sniffed.suggestedRoles), roles: sniffed.suggestedRoles, phase: "ready", message: null, needsRate, signature: signatureOf(sniffed) };
   } catch (err) {
     return refuse(err instanceof Error ? err.message : "The header row could not be read");
   }
@@ -52,12 +61,16 @@ export function useUploadQueue(maxBytes: number) {
     setEntries((list) => list.map((e) => (e.key === key ? { ...e, ...change } : e)));
   }, []);
 
-  const addFiles = useCallback(async (files: File[]) => {
+  const addFiles = useCallback(async (files: File[], stationId?: string) => {
     const described = await Promise.all(
-      files.map(async (file, i) => ({
-        key: `${file.name}-${file.size}-${file.lastModified}-${Date.now()}-${i}`, file, scales: {}, fraction: 0, captureId: null,
-        duplicate: false, firstState: null, ...(await describeFile(file, maxBytes)),
-      })),
+      files.map(async (file, i): Promise<FileEntry> => {
+        const entry: FileEntry = {
+          key: `${file.name}-${file.size}-${file.lastModified}-${Date.now()}-${i}`, file, scales: {}, offsets: {}, sampleRate: "", profileNote: null,
+          fraction: 0, captureId: null, duplicate: false, firstState: null, ...(await describeFile(file, maxBytes)),
+        };
+        const prefill = stationId && entry.signature && entry.phase === "ready" ? await fetchPrefill(stationId, entry.signature, entry.channels, entry.roles) : null;
+        return prefill ? { ...entry, ...prefill } : entry;
+      }),
     );
     setEntries((list) => [...list, ...described]);
   }, [maxBytes]);
@@ -66,12 +79,13 @@ export function useUploadQueue(maxBytes: number) {
 
   const uploadOne = useCallback(async (entry: FileEntry, meta: BatchMeta) => {
     try {
-      const probeScales = Object.fromEntries(
-        Object.entries(entry.scales).filter(([, v]) => v.trim() !== "").map(([k, v]) => [k, Number(v)]),
-      );
+      const numbers = (record: Record<string, string>) => Object.fromEntries(Object.entries(record).filter(([, v]) => v.trim() !== "").map(([k, v]) => [k, Number(v)]));
+      const probeScales = numbers(entry.scales);
+      const channelOffsets = numbers(entry.offsets);
+      const sampleRateHz = entry.sampleRate.trim() !== "" ? Number(entry.sampleRate) : null;
       patch(entry.key, { phase: "hashing", fraction: 0, message: null });
       const sha256 = await sha256OfBlob(entry.file, (f) => patch(entry.key, { fraction: f }));
-      const input = { ...meta, channelRoles: entry.roles, probeScales, fileName: entry.file.name, sizeBytes: entry.file.size, sha256 };
+      const input = { ...meta, channelRoles: entry.roles, probeScales, channelOffsets, sampleRateHz, fileName: entry.file.name, sizeBytes: entry.file.size, sha256 };
       const parsed = captureRegistrationSchema.safeParse(input);
       if (!parsed.success) throw new Error(parsed.error.issues.map((i) => `${i.path.join(".") || "form"}: ${i.message}`).join("; "));
       const registered = await postRegistration(input);

@@ -13,7 +13,7 @@
  * No I/O, no threads.
  */
 import { columnProbeScales } from "./probe-preamble";
-import type { ColumnSink } from "./column-sink";
+import { MAX_SAMPLE_MAGNITUDE, type ColumnSink } from "./column-sink";
 import { createFastBodyParser } from "./fast-body-parser";
 import { CaptureRejection } from "./rejection";
 import { judgeTimeSteps, TimeTrack } from "./time-steps";
@@ -92,6 +92,7 @@ export function prepareBodyLayout(head: Uint8Array, options: ParseOptions = {}):
   } catch {
     throw new BodyRangeFallback("layout");
   }
+  if (layout.leadingColumns > 0 || layout.timeIsIndex) throw new BodyRangeFallback("leading metadata columns or a sample-index column");
   const bodyOffset = starts[layout.dataStartIndex] ?? head.length;
   const lastStart = starts[starts.length - 1] ?? bodyOffset;
   const sampledRows = starts.length - 1 - layout.dataStartIndex;
@@ -167,7 +168,10 @@ class RangeSink {
     const offsets = this.offsets;
     const timeColumn = this.timeIndex;
     for (let c = 0; c < width; c++) {
-      if (c !== timeColumn) (stores[c] as Float64Array)[at] = (row[c] as number) * (factors[c] as number) + (offsets[c] as number);
+      if (c === timeColumn) continue;
+      const value = (row[c] as number) * (factors[c] as number) + (offsets[c] as number);
+      if (!(value <= MAX_SAMPLE_MAGNITUDE && value >= -MAX_SAMPLE_MAGNITUDE)) throw new BodyRangeFallback("value out of range");
+      (stores[c] as Float64Array)[at] = value;
     }
     if (timeColumn >= 0 && !this.time.accept((row[timeColumn] as number) * this.layout.timeFactor, line)) {
       throw new BodyRangeFallback("time not increasing");

@@ -3,7 +3,9 @@ import { createFastBodyParser, type BodyParser } from "./fast-body-parser";
 import { columnProbeScales } from "./probe-preamble";
 import { createReferenceBodyParser } from "./reference-body-parser";
 import { CaptureRejection } from "./rejection";
+import { checkHeadShape, splitHead } from "./head-lines";
 import { sniffLines, type CaptureLayout } from "./sniff";
+import { checkTextHead, createUtf8Transcoder, encodingOf } from "./text-encoding";
 import { siUnitFor } from "./units";
 import type { AppliedProbeScale, ParsedCapture, ParseOptions, QualityWarning } from "./types";
 
@@ -11,50 +13,8 @@ const HEAD_LINES = 64;
 const HEAD_BYTES = 1 << 20;
 const DEFAULT_MAX_BYTES = 2 * 1024 ** 3;
 const MIN_SAMPLES = 16;
-
-function rejectBinary(head: Uint8Array): void {
-  let control = 0;
-  for (let i = 0; i < head.length; i++) {
-    const byte = head[i] as number;
-    if (byte === 0) throw new CaptureRejection("binary", "The file holds binary data (a NUL byte), not CSV text", { line: lineAt(head, i) });
-    if (byte < 32 && byte !== 9 && byte !== 10 && byte !== 13) control++;
-  }
-  if (control > Math.max(8, head.length / 100)) {
-    throw new CaptureRejection("binary", "The file holds binary data (control bytes), not CSV text", { line: 1 });
-  }
-}
-
-function lineAt(bytes: Uint8Array, offset: number): number {
-  let line = 1;
-  for (let i = 0; i < offset; i++) if (bytes[i] === 10) line++;
-  return line;
-}
-
-interface HeadLines {
-  lines: string[];
-  starts: number[];
-}
-
-/** The first `maxLines` complete lines of the head (all of them once the input has ended). */
-function splitHead(head: Uint8Array, final: boolean, maxLines: number): HeadLines {
-  const decoder = new TextDecoder();
-  const lines: string[] = [];
-  const starts: number[] = [];
-  let start = 0;
-  while (lines.length < maxLines) {
-    const newline = head.indexOf(10, start);
-    if (newline < 0) break;
-    starts.push(start);
-    lines.push(decoder.decode(head.subarray(start, newline)).replace(/\r$/, ""));
-    start = newline + 1;
-  }
-  if (final && start < head.length && lines.length < maxLines) {
-    starts.push(start);
-    lines.push(decoder.decode(head.subarray(start)).replace(/\r$/, ""));
-  }
-  if (lines[0] !== undefined) lines[0] = lines[0].replace(/^\uFEFF/, "");
-  return { lines, starts };
-}
+/** Rejections a longer head may cure (the data rows lie further down). */
+const READ_FURTHER = new Set(["no-numeric-data", "quoted-newline"]);
 
 function concat(chunks: Uint8Array[], total: number): Uint8Array {
   const out = new Uint8Array(total);
@@ -64,6 +24,21 @@ function concat(chunks: Uint8Array[], total: number): Uint8Array {
     offset += chunk.length;
   }
   return out;
+}
+
+/** Time of each row: the time column's value × factor + offset (an index column: × interval + start). */
+function timeScale(layout: CaptureLayout, options: ParseOptions): { factor: number; offset: number } {
+  if (layout.timeColumn === null) return { factor: 1, offset: 0 };
+  if (!layout.timeIsIndex) return { factor: layout.units[layout.timeColumn]?.factor ?? 1, offset: 0 };
+  const rate = options.sampleRateHz ?? layout.preambleSampleRateHz;
+  if (rate === null || !(rate > 0) || !Number.isFinite(rate)) {
+    throw new CaptureRejection(
+      "no-time-base",
+      `Column "${layout.headers[layout.timeColumn]}" counts samples, and the file states no sample interval or rate: give the sample rate`,
+      { line: layout.dataStartIndex, column: layout.headers[layout.timeColumn] as string },
+    );
+  }
+  return { factor: 1 / rate, offset: layout.statedStartS ?? 0 };
 }
 
 /**
@@ -88,7 +63,8 @@ export function createCaptureParser(options: ParseOptions = {}): { push(chunk: U
   function start(final: boolean): void {
     const head = concat(headChunks, headBytes);
     headChunks = [head];
-    rejectBinary(head);
+    checkTextHead(head);
+    checkHeadShape(head, final, HEAD_BYTES);
     const { lines, starts } = splitHead(head, final, headLineTarget);
     layout = sniffLines(lines);
     headChunks = [];
@@ -104,20 +80,40 @@ export function createCaptureParser(options: ParseOptions = {}): { push(chunk: U
       // The caller's ratio wins; else the one the preamble states for this channel.
       return { header, factor: unitFactor * (probes.scales[index] ?? 1), offset: options.calibration?.[header]?.offset ?? 0 };
     });
-    const timeFactor = layout.timeColumn !== null ? (layout.units[layout.timeColumn]?.factor ?? 1) : 1;
-    sink = new ColumnSink(columns, layout.timeColumn, timeFactor, options.timeStepTolerance ?? 0.25, expectedRows * 1.02 + 1024);
+    const time = timeScale(layout, options);
+    sink = new ColumnSink(columns, layout.timeColumn, time.factor, options.timeStepTolerance ?? 0.25, expectedRows * 1.02 + 1024, time.offset);
     const makeBody = options.engine === "reference" ? createReferenceBodyParser : createFastBodyParser;
-    body = makeBody(sink, layout.headers, layout.delimiter, layout.decimal, layout.dataStartIndex + 1);
+    body = makeBody(sink, layout.headers, layout.delimiter, layout.decimal, layout.dataStartIndex + 1, layout.leadingColumns);
     body.push(head.subarray(bodyOffset));
   }
 
-  return {
-    push(chunk: Uint8Array): void {
-      if (finished) throw new Error("createCaptureParser: push after finish");
-      received += chunk.length;
-      if (received > maxBytes) {
-        throw new CaptureRejection("oversize", `The file is larger than the ${Math.round(maxBytes / 1024 ** 2)} MiB allowed`);
+  let transcoder: ReturnType<typeof createUtf8Transcoder> | null = null;
+  let encodingKnown = false;
+  let prefix: Uint8Array | null = null;
+
+  /** Settles the encoding from the byte-order mark once two bytes have arrived. */
+  function decode(chunk: Uint8Array, final: boolean): Uint8Array {
+    if (!encodingKnown) {
+      const joined: Uint8Array = prefix ? concat([prefix, chunk], prefix.length + chunk.length) : chunk;
+      if (joined.length < 2 && !final) {
+        prefix = joined.slice();
+        return new Uint8Array(0);
       }
+      prefix = null;
+      encodingKnown = true;
+      const encoding = encodingOf(joined);
+      if (encoding !== "utf-8") transcoder = createUtf8Transcoder(encoding);
+      chunk = joined;
+    }
+    if (!transcoder) return chunk;
+    const text = transcoder.push(chunk);
+    if (!final) return text;
+    const rest = transcoder.finish();
+    return concat([text, rest], text.length + rest.length);
+  }
+
+  function pushText(chunk: Uint8Array): void {
+      if (chunk.length === 0) return;
       if (body) {
         body.push(chunk);
         return;
@@ -131,13 +127,24 @@ export function createCaptureParser(options: ParseOptions = {}): { push(chunk: U
         start(false);
       } catch (error) {
         // A long preamble can hide the data rows: read further before giving up.
-        if (!(error instanceof CaptureRejection && error.code === "no-numeric-data" && headBytes < HEAD_BYTES)) throw error;
+        if (!(error instanceof CaptureRejection && READ_FURTHER.has(error.code) && headBytes < HEAD_BYTES)) throw error;
         headLineTarget = headNewlines * 2;
       }
+  }
+
+  return {
+    push(chunk: Uint8Array): void {
+      if (finished) throw new Error("createCaptureParser: push after finish");
+      received += chunk.length;
+      if (received > maxBytes) {
+        throw new CaptureRejection("oversize", `The file is larger than the ${Math.round(maxBytes / 1024 ** 2)} MiB allowed`);
+      }
+      pushText(decode(chunk, false));
     },
     finish(): ParsedCapture {
       if (finished) throw new Error("createCaptureParser: finish called twice");
       finished = true;
+      pushText(decode(new Uint8Array(0), true));
       if (!body) {
         if (headBytes === 0) throw new CaptureRejection("empty", "The file is empty");
         start(true);

@@ -19,6 +19,8 @@ export interface SinkResult {
 }
 
 const MIN_CAPACITY = 4096;
+/** Largest magnitude taken as a sample, in V or A: beyond it sums of squares over a capture can overflow a double. */
+export const MAX_SAMPLE_MAGNITUDE = 1e100;
 
 /**
  * Receives parsed rows from either body parser and keeps the samples in typed arrays that
@@ -45,6 +47,7 @@ export class ColumnSink {
     private readonly timeFactor: number,
     private readonly timeStepTolerance: number,
     initialCapacity: number,
+    private readonly timeOffset = 0,
   ) {
     const capacity = Math.max(MIN_CAPACITY, Math.ceil(initialCapacity));
     this.capacity = capacity;
@@ -69,9 +72,12 @@ export class ColumnSink {
       const offsets = this.offsets;
       const timeColumn = this.timeIndex;
       for (let c = 0; c < width; c++) {
-        if (c !== timeColumn) (stores[c] as Float64Array)[n] = (row[c] as number) * (factors[c] as number) + (offsets[c] as number);
+        if (c === timeColumn) continue;
+        const value = (row[c] as number) * (factors[c] as number) + (offsets[c] as number);
+        if (!(value <= MAX_SAMPLE_MAGNITUDE && value >= -MAX_SAMPLE_MAGNITUDE)) this.rejectMagnitude(row[c] as number, line, c);
+        (stores[c] as Float64Array)[n] = value;
       }
-      if (timeColumn >= 0) this.acceptTime((row[timeColumn] as number) * this.timeFactor, line);
+      if (timeColumn >= 0) this.acceptTime((row[timeColumn] as number) * this.timeFactor + this.timeOffset, line);
     }
     this.count = n + 1;
     this.lastLine = line;
@@ -91,11 +97,21 @@ export class ColumnSink {
         });
       }
       if (c === this.timeIndex) {
-        if (value === value) this.acceptTime(value * this.timeFactor, line);
+        if (value === value) this.acceptTime(value * this.timeFactor + this.timeOffset, line);
       } else {
-        (this.stores[c] as Float64Array)[n] = value * (this.factors[c] as number) + (this.offsets[c] as number);
+        const scaled = value * (this.factors[c] as number) + (this.offsets[c] as number);
+        if (value === value && !(Math.abs(scaled) <= MAX_SAMPLE_MAGNITUDE)) this.rejectMagnitude(value, line, c);
+        (this.stores[c] as Float64Array)[n] = scaled;
       }
     }
+  }
+
+  private rejectMagnitude(raw: number, line: number, c: number): never {
+    throw new CaptureRejection(
+      "value-out-of-range",
+      `Value ${raw} is beyond ±${MAX_SAMPLE_MAGNITUDE.toExponential(0)} V or A once scaled: not a measurement (an overflowed or unscaled export?)`,
+      { line, column: this.columns[c]?.header ?? `#${c + 1}` },
+    );
   }
 
   private acceptTime(timeS: number, line: number): void {

@@ -1,4 +1,5 @@
 import { CaptureRejection } from "./rejection";
+import { badCell, quotedNewline } from "./bad-cell";
 import { quoteCell } from "./number-syntax";
 import type { ColumnSink } from "./column-sink";
 
@@ -28,6 +29,7 @@ export function createFastBodyParser(
   delimiterText: string,
   decimal: "." | ",",
   firstLine: number,
+  leadingColumns = 0,
 ): BodyParser {
   const delimiterByte = delimiterText.charCodeAt(0);
   const decimalCode = decimal.charCodeAt(0);
@@ -43,13 +45,37 @@ export function createFastBodyParser(
     let end = from;
     while (end < to && buf[end] !== delimiterByte && buf[end] !== NL && buf[end] !== CR) end++;
     const cell = decoder.decode(buf.subarray(from, end)).trim();
+    if (from > 0 && buf[from - 1] === QUOTE && !buf.subarray(from, lineEnd(buf, from)).includes(QUOTE)) {
+      throw quotedNewline(line, column < columnCount ? columnName(column) : `#${column + 1}`);
+    }
     if (column >= columnCount) {
       throw new CaptureRejection("unexpected-field", `Value ${quoteCell(cell)} beyond the last column of the header`, {
         line,
         column: `#${column + 1}`,
       });
     }
-    throw new CaptureRejection("non-numeric", `Not a number: ${quoteCell(cell)}`, { line, column: columnName(column) });
+    throw badCell(cell, line, columnName(column));
+  }
+
+  function lineEnd(buf: Uint8Array, from: number): number {
+    let end = from;
+    while (end < buf.length && buf[end] !== NL) end++;
+    return end;
+  }
+
+  /** Steps over the leading metadata columns of a row; false when the row ends first. */
+  function skipLeading(buf: Uint8Array, from: number): number {
+    let i = from;
+    let skipped = 0;
+    let quoted = false;
+    while (skipped < leadingColumns) {
+      const c = buf[i] as number;
+      if (c === NL) return -i - 1;
+      if (c === QUOTE) quoted = !quoted;
+      else if (c === delimiterByte && !quoted) skipped++;
+      i++;
+    }
+    return i;
   }
 
   function slowValue(buf: Uint8Array, from: number, to: number): number {
@@ -71,6 +97,14 @@ export function createFastBodyParser(
     let i = from;
     while (i < to) {
       line++;
+      if (leadingColumns > 0) {
+        const after = skipLeading(buf, i);
+        if (after < 0) {
+          i = -after;
+          continue;
+        }
+        i = after;
+      }
       let column = 0;
       let filled = 0;
       for (;;) {

@@ -1,5 +1,6 @@
 import Papa from "papaparse";
 import { CaptureRejection } from "./rejection";
+import { badCell, quotedNewline } from "./bad-cell";
 import { isNumericCell, quoteCell, readNumericCell } from "./number-syntax";
 import type { ColumnSink } from "./column-sink";
 import type { BodyParser } from "./fast-body-parser";
@@ -14,6 +15,7 @@ export function createReferenceBodyParser(
   delimiter: string,
   decimal: "." | ",",
   firstLine: number,
+  leadingColumns = 0,
 ): BodyParser {
   const decoder = new TextDecoder();
   const parts: string[] = [];
@@ -26,11 +28,14 @@ export function createReferenceBodyParser(
     finish(): void {
       parts.push(decoder.decode());
       const parsed = Papa.parse<string[]>(parts.join(""), { delimiter, skipEmptyLines: false });
-      parsed.data.forEach((cells, index) => {
+      parsed.data.forEach((fields, index) => {
         const line = firstLine + index;
+        const cells = fields.slice(leadingColumns);
         let filled = 0;
         for (let column = 0; column < Math.max(width, cells.length); column++) {
-          const cell = (cells[column] ?? "").trim();
+          const raw = cells[column] ?? "";
+          if (/[\r\n]/.test(raw)) throw quotedNewline(line, headers[column] ?? `#${column + 1}`);
+          const cell = raw.trim();
           if (cell === "") {
             if (column < width) row[column] = Number.NaN;
             continue;
@@ -42,10 +47,7 @@ export function createReferenceBodyParser(
             });
           }
           if (!isNumericCell(cell, decimal) || !Number.isFinite(readNumericCell(cell, decimal))) {
-            throw new CaptureRejection("non-numeric", `Not a number: ${quoteCell(cell)}`, {
-              line,
-              column: headers[column] ?? `#${column + 1}`,
-            });
+            throw badCell(cell, line, headers[column] ?? `#${column + 1}`);
           }
           row[column] = readNumericCell(cell, decimal);
           filled++;

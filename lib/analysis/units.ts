@@ -42,6 +42,16 @@ export function readUnitToken(token: string): UnitMeaning | null {
     secs: { kind: "time", factor: 1 },
     second: { kind: "time", factor: 1 },
     seconds: { kind: "time", factor: 1 },
+    sekunde: { kind: "time", factor: 1 },
+    sekunden: { kind: "time", factor: 1 },
+    seconde: { kind: "time", factor: 1 },
+    secondes: { kind: "time", factor: 1 },
+    segundo: { kind: "time", factor: 1 },
+    segundos: { kind: "time", factor: 1 },
+    msec: { kind: "time", factor: 1e-3 },
+    usec: { kind: "time", factor: 1e-6 },
+    "µsec": { kind: "time", factor: 1e-6 },
+    nsec: { kind: "time", factor: 1e-9 },
   };
   const long = longForms[text.toLowerCase()];
   if (long) return long;
@@ -55,8 +65,12 @@ export function readUnitToken(token: string): UnitMeaning | null {
 }
 
 const DECORATIONS = [/^(.*?)\s*\(([^()]*)\)\s*$/, /^(.*?)\s*\[([^[\]]*)\]\s*$/, /^(.*?)\s*\/\s*([^/\s]+)\s*$/];
+/** "Time_ms", "t-us", "Zeit s": a time name joined to its unit (only time: "V_A" is a phase, not volts·amps). */
+const JOINED_TIME_UNIT = /^(.*?)[\s_-]+([^\s_-]+)$/;
+/** Unit-only headers taken as such: time units and prefixed V/A. A bare "V" or "A" may be a phase name. */
+const UNIT_ONLY = /^(?:[nuµμmkKM]?s|[nuµμmkKM](?:V|A)|sec|secs|seconds?|msec|usec|µsec|nsec)$/;
 
-/** Splits "CH2 [mV]", "V_AN (V)", "I_A/A" into a name and a unit. */
+/** Splits "CH2 [mV]", "V_AN (V)", "I_A/A", "Time_ms", "(ms)" into a name and a unit. */
 export function readHeaderUnit(header: string): HeaderUnit {
   const trimmed = header.trim();
   for (const pattern of DECORATIONS) {
@@ -65,19 +79,48 @@ export function readHeaderUnit(header: string): HeaderUnit {
     const unit = readUnitToken(match[2] ?? "");
     if (unit) return { name: (match[1] ?? "").trim() || trimmed, kind: unit.kind, factor: unit.factor, written: (match[2] ?? "").trim() };
   }
+  const joined = JOINED_TIME_UNIT.exec(trimmed);
+  if (joined && isTimeName(joined[1] ?? "")) {
+    const unit = readUnitToken(joined[2] ?? "");
+    if (unit?.kind === "time") return { name: (joined[1] ?? "").trim(), kind: "time", factor: unit.factor, written: (joined[2] ?? "").trim() };
+  }
+  if (UNIT_ONLY.test(trimmed)) {
+    const unit = readUnitToken(trimmed);
+    if (unit) return { name: trimmed, kind: unit.kind, factor: unit.factor, written: trimmed };
+  }
   return { name: trimmed, kind: "unknown", factor: 1, written: null };
 }
 
 /** True when a whole header-like row cell is only a unit, e.g. "(ms)" or "V" in a units row. */
 export function isBareUnitCell(cell: string): boolean {
   const text = cell.trim().replace(/^[([]\s*/, "").replace(/\s*[)\]]$/, "");
-  return text.length > 0 && readUnitToken(text) !== null;
+  return text.length > 0 && (readUnitToken(text) !== null || isIndexName(text));
 }
 
-const TIME_NAMES = /^(time|t|x|sec|second|seconds|timestamp|zeit|temps|tiempo)$/i;
+/**
+ * Time column names, lower-cased with spaces, underscores, hyphens and dots removed: English,
+ * German, French, Spanish, Italian/Portuguese, Dutch, Polish, Scandinavian, Finnish, Czech,
+ * Hungarian, Turkish, Russian, Chinese, Japanese, Korean (common practice of DAQ exports).
+ */
+const TIME_NAMES = new Set([
+  "time", "t", "x", "sec", "second", "seconds", "timestamp", "reltime", "relativetime", "elapsedtime", "timeelapsed",
+  "zeit", "relzeit", "zeitstempel", "temps", "tempsrelatif", "tiempo", "tempo", "tijd", "czas", "tid", "aika", "čas", "cas",
+  "idő", "ido", "zaman", "время", "时间", "時間", "시간",
+]);
+
+function isTimeName(name: string): boolean {
+  return TIME_NAMES.has(name.toLowerCase().replace(/[\s_.\-]+/g, ""));
+}
 
 export function looksLikeTimeHeader(unit: HeaderUnit): boolean {
-  return unit.kind === "time" || TIME_NAMES.test(unit.name.replace(/[\s_]+/g, ""));
+  return unit.kind === "time" || isTimeName(unit.name);
+}
+
+/** Names of a column that counts samples rather than holding time (or a units-row cell saying so). */
+const INDEX_NAMES = new Set(["index", "idx", "sample", "samples", "sampleno", "samplenumber", "sampleindex", "point", "points", "pointno", "pt", "no", "nr", "n", "#", "sequence", "seq", "punkt", "nummer", "numéro", "índice", "indice"]);
+
+export function isIndexName(name: string): boolean {
+  return INDEX_NAMES.has(name.toLowerCase().replace(/[\s_.\-()[\]]+/g, ""));
 }
 
 /** The SI unit a channel carries: from its header, else guessed from its name. */

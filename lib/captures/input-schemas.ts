@@ -31,6 +31,13 @@ export const captureRegistrationSchema = z.object({
   speedRpm: z.number({ error: "Shaft speed must be a number" }).finite().min(1, "Shaft speed starts at 1 rpm").max(200_000, "Shaft speed is above 200 000 rpm").nullable().optional(),
   channelRoles: channelRolesSchema.default({}),
   probeScales: probeScalesSchema.default({}),
+  /** Added after the probe ratio, volts or amps per column (an import profile's offsets). */
+  channelOffsets: z
+    .record(z.string().min(1).max(120), z.number({ error: "Offsets are numbers of volts or amps" }).finite().min(-1e6).max(1e6))
+    .refine((r) => Object.keys(r).length <= MAX_CHANNELS, `At most ${MAX_CHANNELS} channels`)
+    .default({}),
+  /** Time base for a file without a time column, or with a sample-index column, Hz. */
+  sampleRateHz: z.number({ error: "The sample rate is a number of Hz" }).positive("The sample rate must be positive").max(1e10).nullable().optional(),
   stationId: z.uuid().optional(),
   notes: z.string().max(2000).default(""),
   fileName: z.string().trim().min(1).max(255).regex(CAPTURE_FILE_NAME, "Only CSV exports are accepted (.csv, .txt or .tsv)"),

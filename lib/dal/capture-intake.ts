@@ -8,7 +8,7 @@ import { listSerialsLike } from "@/db/queries/unit-admin";
 import { getRatingForRegistration, getUnitBySerial, insertUnitOnce } from "@/db/queries/units";
 import { similarSerials } from "@/lib/units/similar-serials";
 import type { Capture } from "@/db/schema";
-import { CaptureRejection, sniffCaptureHeader } from "@/lib/analysis";
+import { CaptureRejection, sniffCaptureBytes, type SniffedHeader } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
 import { captureRegistrationSchema, type completeUploadSchema, type UploadPlan } from "@/lib/captures/input-schemas";
 import { getEnv } from "@/lib/server/env";
@@ -21,6 +21,7 @@ import {
 import type { z } from "zod";
 import { requireUploader, type Actor } from "./actor";
 import { getCaptureStatusView, type CaptureStatusView } from "./captures";
+import { rememberOrApplyProfile } from "./import-profiles";
 import { readJson } from "./request";
 
 type Registration = z.output<typeof captureRegistrationSchema>;
@@ -77,6 +78,7 @@ export async function registerCapture(actor: Actor, input: Registration): Promis
   const { capture, duplicate } = await insertCaptureOnce({
     id, unitId: unit.id, labId: scope.labId, stationId, uploadedById: actor.userId, stationKeyId: actor.stationKeyId,
     testKind: input.testKind, speedRpm: input.speedRpm ?? null, channelRoles: input.channelRoles, probeScales: input.probeScales,
+    channelOffsets: input.channelOffsets, sampleRateHz: input.sampleRateHz ?? null,
     notes: input.notes, originalName: input.fileName, objectKey: captureObjectKey(scope.labId, unit.id, id),
     sizeBytes: input.sizeBytes, sha256: input.sha256,
   });
@@ -165,13 +167,15 @@ export async function completeCaptureUpload(actor: Actor, captureId: string, inp
       await refuse(scope, capture, 400, `The uploaded file has ${stored.sizeBytes} bytes, but ${capture.sizeBytes} were registered`);
     }
     const head = await readObjectHead(capture.objectKey, Math.min(HEADER_PROBE_BYTES, capture.sizeBytes));
-    if (head.includes(0)) await refuse(scope, capture, 415, "The file holds binary data, not CSV text");
+    let sniffed: SniffedHeader | null = null;
     try {
-      sniffCaptureHeader(new TextDecoder().decode(head));
+      // The byte-order mark picks UTF-8 or UTF-16; binary data and UTF-16 without one are refused.
+      sniffed = sniffCaptureBytes(head);
     } catch (err) {
       if (!(err instanceof CaptureRejection)) throw err;
-      await refuse(scope, capture, 422, err.message.replace(/[.\s]+$/, ""));
+      await refuse(scope, capture, err.code === "binary" ? 415 : 422, err.message.replace(/[.\s]+$/, ""));
     }
+    if (sniffed) await rememberOrApplyProfile(actor, capture, sniffed);
     const queued = await markCaptureQueued(scope, capture.id, stored.etag);
     // Read before enqueueing, so the answer says what completion did (queued), not how far a fast worker got.
     const view = await getCaptureStatusView(actor, capture.id);

@@ -45,7 +45,10 @@ export async function runAnalysis(capture: Capture, judgement: Judgement, onProg
   }
   const ids = new Set([...Object.keys(capture.probeScales), ...Object.keys(capture.channelOffsets)]);
   const calibration = Object.fromEntries([...ids].map((id) => [id, { scale: capture.probeScales[id], offset: capture.channelOffsets[id] }]));
-  const parser = createCaptureParser({ calibration, maxBytes: getEnv().UPLOAD_MAX_BYTES, expectedBytes: capture.sizeBytes });
+  const parser = createCaptureParser({
+    calibration, maxBytes: getEnv().UPLOAD_MAX_BYTES, expectedBytes: capture.sizeBytes,
+    ...(capture.sampleRateHz !== null ? { sampleRateHz: capture.sampleRateHz } : {}),
+  });
   const hash = createHash("sha256");
   let read = 0;
   try {

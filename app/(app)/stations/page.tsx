@@ -1,7 +1,9 @@
 import { PageHeader } from "@/components/shell/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
 import { requireRole } from "@/lib/auth/guards";
+import { listProfilesView } from "@/lib/dal/import-profiles";
 import { getStationsView } from "@/lib/dal/stations";
+import { ImportProfiles } from "./_components/import-profiles";
 import { NewKeyForm } from "./_components/new-key-form";
 import { NewStationForm } from "./_components/new-station-form";
 import { revokeKeyAction } from "./actions";
@@ -11,8 +13,8 @@ export const metadata = { title: "Benches" };
 const day = (d: Date | null) => (d ? d.toISOString().slice(0, 10) : "—");
 
 export default async function StationsPage() {
-  await requireRole("admin", "operator", "qa");
-  const view = await getStationsView();
+  const user = await requireRole("admin", "operator", "qa");
+  const [view, profiles] = await Promise.all([getStationsView(), listProfilesView()]);
   return (
     <>
       <PageHeader title="Benches" lead="Test benches of the lab. A bench PC uploads through the bench API with a station key (see docs/bench-api.md)." />
@@ -49,6 +51,7 @@ export default async function StationsPage() {
                   </table>
                 )
               ) : null}
+              <ImportProfiles stationName={s.name} profiles={profiles.filter((p) => p.stationId === s.id)} canEdit={user.role !== "qa"} />
             </li>
           ))}
         </ul>

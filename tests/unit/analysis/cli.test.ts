@@ -52,4 +52,33 @@ describe("scripts/analyse.ts", () => {
     expect(missing.status).toBe(2);
     expect(missing.stderr).toContain("no such file");
   }, 30_000);
+
+  it("analyse --help lists every option with its unit and an example, and exits 0 (contract)", () => {
+    const result = analyse("--help");
+    expect(result.status).toBe(0);
+    const flags = ["--channel", "--speed-rpm", "--poles", "--harmonics", "--sample-rate", "--probe", "--offset", "--rating", "--tolerance", "--magnet-temp", "--reference-temp", "--magnet", "--iec-groups", "--worst-cycle", "--json", "--help"];
+    for (const flag of flags) expect(result.stdout).toContain(flag);
+    for (const unit of ["[rpm]", "[Hz]", "[°C]", "[V or A]", "[V/V or A/A]"]) expect(result.stdout).toContain(unit);
+    // Every option that takes a value shows an example of it.
+    for (const flag of ["--channel", "--speed-rpm", "--poles", "--harmonics", "--sample-rate", "--probe", "--offset", "--rating", "--tolerance", "--magnet-temp", "--reference-temp", "--magnet"]) {
+      expect(result.stdout).toContain(`e.g. ${flag} `);
+    }
+    expect(analyse("-h").stdout).toBe(result.stdout);
+  }, 30_000);
+
+  it("analyse exits 2 naming an unknown option or a missing value (parseArgs)", () => {
+    const unknown = analyse("capture.csv", "--bogus");
+    expect([unknown.status, unknown.stderr]).toEqual([2, expect.stringContaining("--bogus")]);
+    const missing = analyse("capture.csv", "--speed-rpm");
+    expect([missing.status, missing.stderr]).toEqual([2, expect.stringContaining("--speed-rpm")]);
+  }, 30_000);
+
+  it("analyse --sample-rate gives the time base of a sample-index column (corpus fixture)", () => {
+    const result = analyse(path.join(FIXTURE_DIR, "corpus", "index-caller-rate.csv"), "--sample-rate", "5000", "--json");
+    expect(result.status).toBe(0);
+    const report = analysisReportSchema.parse(JSON.parse(result.stdout));
+    expect(report.sampleRateHz).toBeCloseTo(5000, 6);
+    expect(report.frequencyHz).toBeCloseTo(50, 6); // the generator's 50 Hz
+    expect(analyse(path.join(FIXTURE_DIR, "corpus", "index-caller-rate.csv")).status).toBe(2);
+  }, 30_000);
 });

@@ -68,7 +68,7 @@ describe("parseCaptureText on the layout samples", () => {
   });
 
   it("parseCaptureText reads awkward numeric cells exactly as Number() does, on both paths (reference: Number)", () => {
-    const cells = ["-0", "0.000000000000001", "123456789012345", "1234567890123456", "1.", "-.5", ".5", "007", "1e5", "-2.5E-3", "+4.25", " 3.5 ", "9007199254740993", "0.1", "1.7976931348623157e308", "-1234.5678", "42"];
+    const cells = ["-0", "0.000000000000001", "123456789012345", "1234567890123456", "1.", "-.5", ".5", "007", "1e5", "-2.5E-3", "+4.25", " 3.5 ", "9007199254740993", "0.1", "1.5e99", "-1234.5678", "42"];
     const rows = cells.map((cell, i) => `${i * 1e-3},${cell}`);
     for (const engine of ["fast", "reference"] as const) {
       const samples = parseCaptureText(["t (s),v (V)", ...rows].join("\n"), { engine }).channels[0]!.samples;
@@ -96,6 +96,15 @@ describe("parseCaptureText rejections", () => {
     "time-gap.csv": { code: "irregular-time", line: 22, column: "Time (s)" },
     "too-few-samples.csv": { code: "too-few-samples" },
     "unequal-length.csv": { code: "unequal-length", line: 52, column: "V_BN (V)" },
+    "utf16-no-bom.csv": { code: "utf16-no-bom", line: 1 },
+    "zero-interval.csv": { code: "bad-sample-interval", line: 1 },
+    "negative-interval.csv": { code: "bad-sample-interval", line: 2 },
+    "cr-only-line-ends.csv": { code: "cr-line-ends", line: 1 },
+    "quoted-newline.csv": { code: "quoted-newline", line: 22, column: "V_AN (V)" },
+    "hex-value.csv": { code: "hex-value", line: 35, column: "V_AN (V)" },
+    "hex-all.csv": { code: "hex-value", line: 2, column: "ADC" },
+    "huge-value.csv": { code: "value-out-of-range", line: 14, column: "V_AN (V)" },
+    "index-without-time-base.csv": { code: "no-time-base", column: "Index" },
   };
   for (const name of rejects) {
     it(`parseCaptureText(${name}) is rejected with a located message on both paths`, () => {

@@ -1,0 +1,1 @@
+ALTER TABLE "captures" ADD COLUMN "sample_rate_hz" double precision;
