@@ -1,4 +1,4 @@
-import { relations, sql } from "drizzle-orm";
+import { sql } from "drizzle-orm";
 import {
   bigint, boolean, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid,
 } from "drizzle-orm/pg-core";
@@ -197,23 +197,6 @@ export const unitEvents = pgTable(
   },
   (t) => [index("unit_events_unit_idx").on(t.unitId, t.createdAt)],
 );
-
-export const organisationsRelations = relations(organisations, ({ many }) => ({ users: many(users) }));
-export const usersRelations = relations(users, ({ one }) => ({
-  organisation: one(organisations, { fields: [users.organisationId], references: [organisations.id] }),
-}));
-export const unitsRelations = relations(units, ({ one, many }) => ({
-  rating: one(ratings, { fields: [units.ratingId], references: [ratings.id] }),
-  owner: one(organisations, { fields: [units.organisationId], references: [organisations.id] }),
-  captures: many(captures),
-}));
-export const capturesRelations = relations(captures, ({ one, many }) => ({
-  unit: one(units, { fields: [captures.unitId], references: [units.id] }),
-  analyses: many(analyses),
-}));
-export const analysesRelations = relations(analyses, ({ one }) => ({
-  capture: one(captures, { fields: [analyses.captureId], references: [captures.id] }),
-}));
 
 export type Organisation = typeof organisations.$inferSelect;
 export type User = typeof users.$inferSelect;

@@ -20,6 +20,20 @@ export async function findActiveUserByEmail(email: string): Promise<SessionUserR
   return rows[0];
 }
 
+/** The account behind a session or a trusted script, with its organisation; undefined when gone or disabled. */
+export async function findActiveUserById(userId: string): Promise<Omit<SessionUserRow, "passwordHash"> | undefined> {
+  const rows = await getDb()
+    .select({
+      id: users.id, email: users.email, name: users.name, role: users.role, organisationId: users.organisationId,
+      organisationName: organisations.name, organisationKind: organisations.kind,
+    })
+    .from(users)
+    .innerJoin(organisations, eq(organisations.id, users.organisationId))
+    .where(and(eq(users.id, userId), isNull(users.disabledAt)))
+    .limit(1);
+  return rows[0];
+}
+
 /** Accounts a lab manager administers: the lab's own staff and every client organisation's users. */
 export async function listUsersForAdmin(labId: string) {
   return getDb()

@@ -29,7 +29,7 @@ export class HttpError extends Error {
   }
 }
 
-/** For route handlers: throws HttpError(401/403); turn it into JSON with `errorResponse`. */
+/** For route handlers: throws HttpError(401/403); `apiRoute` (lib/dal/route-handler.ts) turns it into JSON. */
 export async function requireApiUser(...roles: Role[]): Promise<SessionUser> {
   const user = await getSessionUser();
   if (!user) throw new HttpError(401, "Sign in first.");

@@ -4,9 +4,8 @@ import { getCaptureDetail, listCapturesForUnit } from "@/db/queries/captures";
 import { getUnitBySerial, listRatingsForRegistration } from "@/db/queries/units";
 import type { AnalysisReport } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
-import { requireUser } from "@/lib/auth/guards";
 import { presignDownload } from "@/lib/server/storage";
-import { actorForUser, type Actor } from "./actor";
+import { requirePageActor, type Actor } from "./actor";
 
 // One read path for the capture page, the browser's polling handlers and the bench API.
 
@@ -22,8 +21,6 @@ export type CaptureStatusView = {
     vufPercent: number | null; keLineRmsPerKrpm: number | null; createdAt: string; report: AnalysisReport;
   };
 };
-
-export const FINAL_STATES = new Set(["analysed", "rejected", "failed"]);
 
 export async function getCaptureStatusView(actor: Actor, captureId: string): Promise<CaptureStatusView | null> {
   const found = await getCaptureDetail(actor.scope, captureId);
@@ -59,7 +56,7 @@ export async function getCapturePlotView(actor: Actor, captureId: string): Promi
   return { preview: analysis.preview as WaveformPreview, spectrum: analysis.spectrum as SpectrumView };
 }
 
-export async function getCaptureHistory(actor: Actor, captureId: string) {
+async function getCaptureHistory(actor: Actor, captureId: string) {
   return listAnalysisHistory(actor.scope, captureId);
 }
 
@@ -86,26 +83,25 @@ export async function getUnitCapturesBySerial(actor: Actor, serial: string) {
 
 /** The capture page: the status view plus the run history; null for missing and for other organisations' captures. */
 export async function getCapturePageView(captureId: string) {
-  const user = await requireUser();
+  const actor = await requirePageActor();
   if (!/^[0-9a-f-]{36}$/i.test(captureId)) return null;
-  const actor = actorForUser(user);
   const capture = await getCaptureStatusView(actor, captureId);
   if (!capture) return null;
-  const canReanalyse = actor.scope.kind === "lab" && (user.role === "admin" || user.role === "qa");
+  const canReanalyse = actor.scope.kind === "lab" && (actor.role === "admin" || actor.role === "qa");
   return { capture, history: await getCaptureHistory(actor, captureId), canReanalyse };
 }
 
 /** The unit page's captures list; the unit itself was already checked by the caller's scope. */
 export async function getUnitCaptureRows(unitId: string) {
-  const actor = actorForUser(await requireUser());
+  const actor = await requirePageActor();
   const rows = await listCapturesForUnit(actor.scope, unitId);
   return rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() }));
 }
 
 /** Ratings a lab manager may re-run analyses for (the re-analysis form). */
 export async function getReanalysisRatings() {
-  const user = await requireUser();
-  if (user.role !== "admin") return [];
-  const rows = await listRatingsForRegistration(actorForUser(user).scope);
+  const actor = await requirePageActor();
+  if (actor.role !== "admin") return [];
+  const rows = await listRatingsForRegistration(actor.scope);
   return rows.map((r) => ({ id: r.id, label: `${r.modelCode} · ${r.title} (${r.owner})` }));
 }

@@ -74,3 +74,16 @@ export function getEnv(): Env {
   cached = Object.freeze(parsed.data);
   return cached;
 }
+
+/**
+ * EMFOLIO_INGEST_TRACE=1 prints the parallel reader's timeline to stderr (for the benchmark). Read on
+ * its own so the command-line analyser, which has no database or store settings, can use it too.
+ */
+export function ingestTraceEnabled(): boolean {
+  return Boolean(blankToUndefined(process.env.EMFOLIO_INGEST_TRACE));
+}
+
+/** This process's environment plus `overrides`, for a child process (workers the tests and benchmarks start). */
+export function childProcessEnv(overrides: Record<string, string> = {}): NodeJS.ProcessEnv {
+  return { ...process.env, ...overrides };
+}

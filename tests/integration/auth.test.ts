@@ -1,6 +1,6 @@
 import { randomUUID } from "node:crypto";
 import { afterAll, describe, expect, it } from "vitest";
-import { closeDb } from "@/db/client";
+import { closeDb } from "@/db/queries/connection";
 import { clearFailures } from "@/db/queries/sign-in-attempts";
 import { DEMO_PASSWORD } from "@/db/seed-data";
 import { authenticate } from "@/lib/auth/authenticate";

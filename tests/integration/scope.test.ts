@@ -1,5 +1,5 @@
 import { afterAll, describe, expect, it } from "vitest";
-import { closeDb } from "@/db/client";
+import { closeDb } from "@/db/queries/connection";
 import { countUnitsByOverall, getUnit, getUnitBySerial, listUnits } from "@/db/queries/units";
 import { demoUnits } from "@/db/seed-data";
 import { seededOrgs } from "./helpers";

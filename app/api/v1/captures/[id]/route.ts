@@ -1,16 +1,13 @@
-import { errorResponse, HttpError } from "@/lib/auth/guards";
+import { HttpError } from "@/lib/auth/guards";
 import { requireStationActor } from "@/lib/dal/actor";
 import { getCaptureStatusView } from "@/lib/dal/captures";
 import { requireUuid } from "@/lib/dal/request";
+import { apiRoute } from "@/lib/dal/route-handler";
 
 /** State, progress and (once analysed) the report: what the capture page and the upload list poll. */
-export async function GET(request: Request, { params }: { params: Promise<{ id: string }> }) {
-  try {
-    const actor = await requireStationActor(request);
-    const view = await getCaptureStatusView(actor, requireUuid((await params).id, "capture"));
-    if (!view) throw new HttpError(404, "No such capture");
-    return Response.json(view, { headers: { "Cache-Control": "no-store" } });
-  } catch (err) {
-    return errorResponse(err);
-  }
-}
+export const GET = apiRoute(async (request: Request, { params }: { params: Promise<{ id: string }> }) => {
+  const actor = await requireStationActor(request);
+  const view = await getCaptureStatusView(actor, requireUuid((await params).id, "capture"));
+  if (!view) throw new HttpError(404, "No such capture");
+  return Response.json(view, { headers: { "Cache-Control": "no-store" } });
+});
