@@ -1,6 +1,6 @@
 import "server-only";
 import { getServerSession } from "next-auth";
-import { redirect } from "next/navigation";
+import { forbidden, redirect } from "next/navigation";
 import type { Role } from "@/db/schema";
 import { authOptions, type SessionUser } from "./options";
 
@@ -16,10 +16,10 @@ export async function requireUser(): Promise<SessionUser> {
   return user;
 }
 
-/** For pages and server actions: wrong role -> access-denied page. */
+/** For pages and server actions: wrong role -> 403 (app/(app)/forbidden.tsx, with the app's menu). */
 export async function requireRole(...roles: Role[]): Promise<SessionUser> {
   const user = await requireUser();
-  if (!roles.includes(user.role)) redirect("/access-denied");
+  if (!roles.includes(user.role)) forbidden();
   return user;
 }
 

@@ -3,6 +3,7 @@ import CredentialsModule from "next-auth/providers/credentials";
 import { z } from "zod";
 import type { Role } from "@/db/schema";
 import { authenticate } from "./authenticate";
+import { safeRedirectPath } from "./redirect-target";
 
 // next-auth 4 ships CommonJS: Node scripts see the module object where the bundler sees the function.
 const CredentialsProvider =
@@ -37,6 +38,10 @@ export const authOptions: NextAuthOptions = {
     }),
   ],
   callbacks: {
+    // next-auth's callbackUrl: only this app's own paths (lib/auth/redirect-target.ts).
+    redirect({ url, baseUrl }) {
+      return new URL(safeRedirectPath(url, baseUrl), baseUrl).toString();
+    },
     jwt({ token, user }) {
       if (user) {
         token.uid = user.id;

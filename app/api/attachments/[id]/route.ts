@@ -34,7 +34,7 @@ export const GET = apiRoute(async (request: Request, { params }: { params: Promi
       "cache-control": "private, no-store",
       "x-content-type-options": "nosniff",
       // A file is never a page: no scripts, forms or plugins even if a browser is talked into rendering it.
-      "content-security-policy": "sandbox; default-src 'none'; img-src 'self'",
+      "content-security-policy": "sandbox; default-src 'none'; img-src 'self'; frame-ancestors 'none'",
     },
   });
 });
