@@ -6,7 +6,6 @@
 export function safeRedirectPath(raw: unknown, origin: string): string {
   if (typeof raw !== "string" || raw.length === 0 || raw.length > 2048) return "/";
   // Browsers drop tab/newline and read "\" as "/": "/\host" and "/\t/host" are other hosts to them.
-  // eslint-disable-next-line no-control-regex
   if (/[\u0000-\u001f\u007f\\]/.test(raw)) return "/";
   // A path, or an absolute URL (checked against the origin below); nothing relative like "evil.example".
   if (!raw.startsWith("/") && !/^[a-z][a-z0-9+.-]*:/i.test(raw)) return "/";
