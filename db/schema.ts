@@ -1,7 +1,9 @@
 import { sql } from "drizzle-orm";
 import {
-  bigint, boolean, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid,
+  bigint, boolean, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid,
 } from "drizzle-orm/pg-core";
+import type { Rating as RatingNameplate } from "../lib/analysis/rating";
+import type { CheckId, ToleranceProfile } from "../lib/analysis/tolerance";
 
 // Row types come from here and nowhere else.
 
@@ -9,7 +11,10 @@ export const organisationKind = pgEnum("organisation_kind", ["lab", "manufacture
 export const userRole = pgEnum("user_role", ["admin", "operator", "qa", "manufacturer"]);
 export const testKind = pgEnum("test_kind", ["no-load", "load", "back-emf", "other"]);
 export const captureState = pgEnum("capture_state", ["uploading", "queued", "analysing", "analysed", "rejected", "failed"]);
-export const verdictStatus = pgEnum("verdict_status", ["pass", "marginal", "fail", "not-applicable"]);
+// "not-applicable" only in results made before engine 2.0.0; "not-required" never reaches an overall.
+export const verdictStatus = pgEnum("verdict_status", ["pass", "marginal", "fail", "not-applicable", "inconclusive", "not-required"]);
+/** Where a unit stands against its rating's test plan (lib/analysis evaluatePlan). */
+export const planState = pgEnum("plan_state", ["incomplete", "complete-within", "failed", "inconclusive"]);
 export const disposition = pgEnum("disposition", ["open", "accepted", "accepted-with-concession", "rework", "scrapped"]);
 
 const createdAt = () => timestamp("created_at", { withTimezone: true }).notNull().defaultNow();
@@ -19,8 +24,24 @@ export const organisations = pgTable("organisations", {
   name: text("name").notNull(),
   slug: text("slug").notNull().unique(),
   kind: organisationKind("kind").notNull(),
+  address: text("address").notNull().default(""),
+  contactEmail: text("contact_email").notNull().default(""),
+  /** The client's own reference code for itself (what their purchase orders say). */
+  referenceCode: text("reference_code").notNull().default(""),
+  deactivatedAt: timestamp("deactivated_at", { withTimezone: true }),
   createdAt: createdAt(),
 });
+
+/** Which labs serve which client organisations; every client scope goes through it. */
+export const labClients = pgTable(
+  "lab_clients",
+  {
+    labId: uuid("lab_id").notNull().references(() => organisations.id),
+    clientId: uuid("client_id").notNull().references(() => organisations.id),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.labId, t.clientId] }), index("lab_clients_client_idx").on(t.clientId)],
+);
 
 export const users = pgTable(
   "users",
@@ -32,6 +53,8 @@ export const users = pgTable(
     role: userRole("role").notNull(),
     organisationId: uuid("organisation_id").notNull().references(() => organisations.id),
     disabledAt: timestamp("disabled_at", { withTimezone: true }),
+    /** Bumped to end every session of the user (password change, disable, role change, sign out everywhere). */
+    sessionVersion: integer("session_version").notNull().default(0),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex("users_email_lower_idx").on(sql`lower(${t.email})`), index("users_org_idx").on(t.organisationId)],
@@ -49,21 +72,60 @@ export const signInAttempts = pgTable(
   (t) => [index("sign_in_attempts_email_idx").on(t.email, t.at), index("sign_in_attempts_address_idx").on(t.address, t.at)],
 );
 
-/** A machine model's nameplate rating, owned by the manufacturer whose units carry it. */
+/**
+ * A machine model's nameplate rating, defined by a lab for one of its clients (whose units carry it).
+ * Retired, never deleted, once units reference it.
+ */
 export const ratings = pgTable(
   "ratings",
   {
     id: uuid("id").primaryKey().defaultRandom(),
+    /** The client whose model this is. */
     organisationId: uuid("organisation_id").notNull().references(() => organisations.id),
+    /** The lab that defined it and judges against it. */
+    labId: uuid("lab_id").notNull().references(() => organisations.id),
     modelCode: text("model_code").notNull(),
     title: text("title").notNull(),
-    // Validated with ratingSchema from lib/analysis.
-    nameplate: jsonb("nameplate").notNull(),
-    // A tolerance profile (a preset copy, possibly edited), validated with toleranceProfileSchema.
-    tolerance: jsonb("tolerance").notNull(),
+    nameplate: jsonb("nameplate").$type<RatingNameplate>().notNull(),
+    retiredAt: timestamp("retired_at", { withTimezone: true }),
+    createdAt: createdAt(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex("ratings_lab_org_model_idx").on(t.labId, t.organisationId, t.modelCode)],
+);
+
+/** Immutable versions of a rating's tolerance profile; the highest version is in force. */
+export const toleranceProfiles = pgTable(
+  "tolerance_profiles",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    ratingId: uuid("rating_id").notNull().references(() => ratings.id),
+    version: integer("version").notNull(),
+    profile: jsonb("profile").$type<ToleranceProfile>().notNull(),
+    reason: text("reason").notNull(),
+    createdById: uuid("created_by_id").references(() => users.id),
     createdAt: createdAt(),
   },
-  (t) => [uniqueIndex("ratings_org_model_idx").on(t.organisationId, t.modelCode)],
+  (t) => [uniqueIndex("tolerance_profiles_rating_version_idx").on(t.ratingId, t.version)],
+);
+
+/** The steps of a rating's test plan; a unit is complete when each has a capture of record within tolerance. */
+export const planSteps = pgTable(
+  "plan_steps",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    ratingId: uuid("rating_id").notNull().references(() => ratings.id),
+    position: integer("position").notNull(),
+    name: text("name").notNull(),
+    testKind: testKind("test_kind").notNull(),
+    speedMinRpm: doublePrecision("speed_min_rpm").notNull(),
+    speedMaxRpm: doublePrecision("speed_max_rpm").notNull(),
+    requiredRoles: jsonb("required_roles").$type<string[]>().notNull().default([]),
+    checks: jsonb("checks").$type<CheckId[]>().notNull(),
+    retiredAt: timestamp("retired_at", { withTimezone: true }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("plan_steps_rating_idx").on(t.ratingId, t.position)],
 );
 
 export const units = pgTable(
@@ -79,6 +141,10 @@ export const units = pgTable(
     disposition: disposition("disposition").notNull().default("open"),
     latestOverall: verdictStatus("latest_overall"),
     latestCaptureAt: timestamp("latest_capture_at", { withTimezone: true }),
+    /** Against the rating's test plan, refreshed whenever a result, a record or the plan changes. */
+    planState: planState("plan_state").notNull().default("incomplete"),
+    retiredAt: timestamp("retired_at", { withTimezone: true }),
+    createdById: uuid("created_by_id").references(() => users.id),
     createdAt: createdAt(),
   },
   (t) => [
@@ -123,8 +189,14 @@ export const captures = pgTable(
     stationKeyId: uuid("station_key_id").references(() => stationKeys.id),
     testKind: testKind("test_kind").notNull(),
     speedRpm: doublePrecision("speed_rpm"),
-    channelRoles: jsonb("channel_roles").notNull().default({}),
-    probeScales: jsonb("probe_scales").notNull().default({}),
+    /** The plan step the capture counts for (matched from test kind and speed, or chosen). */
+    planStepId: uuid("plan_step_id").references(() => planSteps.id),
+    channelRoles: jsonb("channel_roles").$type<Record<string, string>>().notNull().default({}),
+    probeScales: jsonb("probe_scales").$type<Record<string, number>>().notNull().default({}),
+    /** Added after scaling, in volts or amps, per column header. */
+    channelOffsets: jsonb("channel_offsets").$type<Record<string, number>>().notNull().default({}),
+    /** Magnet temperature during a back-EMF test, °C, for Ke at the rating's reference temperature. */
+    magnetTemperatureC: doublePrecision("magnet_temperature_c"),
     notes: text("notes").notNull().default(""),
     originalName: text("original_name").notNull(),
     objectKey: text("object_key").notNull().unique(),
@@ -158,6 +230,11 @@ export const analyses = pgTable(
     captureId: uuid("capture_id").notNull().references(() => captures.id),
     analysisVersion: text("analysis_version").notNull(),
     toleranceDigest: text("tolerance_digest").notNull(),
+    /** The profile version the verdicts were judged against (null for results before versioned profiles). */
+    profileVersionId: uuid("profile_version_id").references(() => toleranceProfiles.id),
+    planStepId: uuid("plan_step_id").references(() => planSteps.id),
+    /** "analysis" read the file; "rejudge" judged the stored figures again. */
+    kind: text("kind", { enum: ["analysis", "rejudge"] }).notNull().default("analysis"),
     current: boolean("current").notNull().default(true),
     report: jsonb("report").notNull(),
     overall: verdictStatus("overall"),
@@ -193,9 +270,57 @@ export const unitEvents = pgTable(
     fromDisposition: disposition("from_disposition"),
     toDisposition: disposition("to_disposition"),
     comment: text("comment").notNull().default(""),
+    /** What changed, for edits and record choices: { field: [before, after] } or ids. */
+    detail: jsonb("detail").$type<Record<string, unknown>>(),
     createdAt: createdAt(),
   },
   (t) => [index("unit_events_unit_idx").on(t.unitId, t.createdAt)],
+);
+
+/** Corrections of a capture's settings after upload; each queues a new analysis. */
+export const captureCorrections = pgTable(
+  "capture_corrections",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    captureId: uuid("capture_id").notNull().references(() => captures.id),
+    actorId: uuid("actor_id").references(() => users.id),
+    stationKeyId: uuid("station_key_id").references(() => stationKeys.id),
+    reason: text("reason").notNull(),
+    before: jsonb("before").$type<Record<string, unknown>>().notNull(),
+    after: jsonb("after").$type<Record<string, unknown>>().notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("capture_corrections_capture_idx").on(t.captureId, t.createdAt)],
+);
+
+/** A quality engineer's choice of the capture of record for a unit's plan step (else the latest valid one). */
+export const stepRecords = pgTable(
+  "step_records",
+  {
+    unitId: uuid("unit_id").notNull().references(() => units.id),
+    planStepId: uuid("plan_step_id").notNull().references(() => planSteps.id),
+    captureId: uuid("capture_id").notNull().references(() => captures.id),
+    reason: text("reason").notNull(),
+    chosenById: uuid("chosen_by_id").notNull().references(() => users.id),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.unitId, t.planStepId] })],
+);
+
+/** A bench's remembered import settings for one header layout (roles, probe ratios, offsets, time base). */
+export const importProfiles = pgTable(
+  "import_profiles",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    stationId: uuid("station_id").notNull().references(() => stations.id),
+    headerSignature: text("header_signature").notNull(),
+    headerPreview: text("header_preview").notNull(),
+    settings: jsonb("settings").$type<Record<string, unknown>>().notNull(),
+    updatedById: uuid("updated_by_id").references(() => users.id),
+    createdAt: createdAt(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex("import_profiles_station_header_idx").on(t.stationId, t.headerSignature)],
 );
 
 export type Organisation = typeof organisations.$inferSelect;
@@ -209,6 +334,12 @@ export type Capture = typeof captures.$inferSelect;
 export type CaptureState = (typeof captureState.enumValues)[number];
 export type Analysis = typeof analyses.$inferSelect;
 export type UnitEvent = typeof unitEvents.$inferSelect;
+export type ToleranceProfileVersion = typeof toleranceProfiles.$inferSelect;
+export type PlanStepRow = typeof planSteps.$inferSelect;
+export type CaptureCorrection = typeof captureCorrections.$inferSelect;
+export type ImportProfile = typeof importProfiles.$inferSelect;
+export type PlanState = (typeof planState.enumValues)[number];
+export type VerdictStatusValue = (typeof verdictStatus.enumValues)[number];
 
 /** One-time links for invitations and password resets; only the sha256 of the token is stored. */
 export const passwordTokens = pgTable(

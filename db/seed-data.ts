@@ -1,11 +1,12 @@
 // The demo scenario. Every company, person, place and serial here is invented.
+import type { CheckId, PresetId, Rating } from "@/lib/analysis";
 
 export const DEMO_PASSWORD = "bench-demo-2026";
 
 export const demoOrganisations = [
-  { slug: "harrowgate-lab", name: "Harrowgate Rotating Machines Lab", kind: "lab" },
-  { slug: "kestrum", name: "Kestrum Generators", kind: "manufacturer" },
-  { slug: "poldane", name: "Poldane Motion Works", kind: "manufacturer" },
+  { slug: "harrowgate-lab", name: "Harrowgate Rotating Machines Lab", kind: "lab", address: "Unit 4, Fellside Works, Harrowgate HG9 2QT", contactEmail: "lab@harrowgate.example", referenceCode: "" },
+  { slug: "kestrum", name: "Kestrum Generators", kind: "manufacturer", address: "12 Brindle Quay, Portmarren PM3 8LW", contactEmail: "quality@kestrum.example", referenceCode: "KST-0042" },
+  { slug: "poldane", name: "Poldane Motion Works", kind: "manufacturer", address: "Poldane Business Park, Ostley OS4 1DN", contactEmail: "tests@poldane.example", referenceCode: "PMW/SUP/117" },
 ] as const;
 
 export const demoUsers = [
@@ -21,24 +22,38 @@ export const demoStations = [
   { name: "Bay 3 · PM spin rig", location: "Harrowgate, clean room" },
 ] as const;
 
-export const demoRatings = [
+type DemoStep = { name: string; testKind: "no-load" | "load" | "back-emf"; speedRpm: number; windowPercent: number; roles: string[]; checks: CheckId[] };
+
+const ALTERNATOR_NO_LOAD: CheckId[] = ["voltage", "frequency", "thd", "individual-harmonic", "voltage-unbalance", "phase-displacement", "phase-sequence", "deviation-factor", "thf", "tif", "pole-count"];
+const PM_BACK_EMF: CheckId[] = ["back-emf-constant", "frequency", "thd", "voltage-unbalance", "phase-displacement", "phase-sequence", "pole-count"];
+const LL3 = ["vab", "vbc", "vca"];
+
+/** Each rating starts from a preset; the plan is what a unit of it must pass to be complete. */
+export const demoRatings: ReadonlyArray<{ org: string; modelCode: string; title: string; preset: PresetId; nameplate: Rating; plan: DemoStep[] }> = [
   {
-    org: "kestrum", modelCode: "KG-45T", title: "45 kVA three-phase alternator, 400 V 50 Hz",
-    nameplate: { nominalVoltageV: 400, voltageBasis: "line-line-rms", frequencyHz: 50, phases: 3, connection: "star", poles: 4, ratedSpeedRpm: 1500, ratedKva: 45 },
+    org: "kestrum", modelCode: "KG-45T", title: "45 kVA three-phase alternator, 400 V 50 Hz", preset: "iec-60034-1",
+    nameplate: { machineKind: "wound-field-alternator", nominalVoltageV: 400, voltageBasis: "line-line-rms", frequencyHz: 50, phases: 3, connection: "star", poles: 4, ratedSpeedRpm: 1500, ratedKva: 45 },
+    plan: [{ name: "Open circuit at rated speed", testKind: "no-load", speedRpm: 1500, windowPercent: 2, roles: LL3, checks: ALTERNATOR_NO_LOAD }],
   },
   {
-    org: "kestrum", modelCode: "KG-60T6", title: "60 kVA three-phase alternator, 480 V 60 Hz",
-    nameplate: { nominalVoltageV: 480, voltageBasis: "line-line-rms", frequencyHz: 60, phases: 3, connection: "star", poles: 4, ratedSpeedRpm: 1800, ratedKva: 60 },
+    org: "kestrum", modelCode: "KG-60T6", title: "60 kVA three-phase alternator, 480 V 60 Hz", preset: "nema-mg-1",
+    nameplate: { machineKind: "wound-field-alternator", nominalVoltageV: 480, voltageBasis: "line-line-rms", frequencyHz: 60, phases: 3, connection: "star", poles: 4, ratedSpeedRpm: 1800, ratedKva: 60 },
+    plan: [{ name: "Open circuit at rated speed", testKind: "no-load", speedRpm: 1800, windowPercent: 2, roles: LL3, checks: ALTERNATOR_NO_LOAD }],
   },
   {
-    org: "kestrum", modelCode: "KS-8", title: "8 kVA single-phase alternator, 230 V 50 Hz",
-    nameplate: { nominalVoltageV: 230, voltageBasis: "line-neutral-rms", frequencyHz: 50, phases: 1, connection: "single", poles: 2, ratedSpeedRpm: 3000, ratedKva: 8 },
+    org: "kestrum", modelCode: "KS-8", title: "8 kVA single-phase alternator, 230 V 50 Hz", preset: "lab-own",
+    nameplate: { machineKind: "wound-field-alternator", nominalVoltageV: 230, voltageBasis: "line-neutral-rms", frequencyHz: 50, phases: 1, connection: "single", poles: 2, ratedSpeedRpm: 3000, ratedKva: 8 },
+    plan: [{ name: "Open circuit at rated speed", testKind: "no-load", speedRpm: 3000, windowPercent: 2, roles: ["v"], checks: ["voltage", "frequency", "thd", "individual-harmonic", "deviation-factor", "pole-count"] }],
   },
   {
-    org: "poldane", modelCode: "PX-120", title: "PM servo generator, Ke 120 V/krpm, 8 poles",
-    nameplate: { nominalVoltageV: 360, voltageBasis: "line-line-rms", frequencyHz: 200, phases: 3, connection: "star", poles: 8, ratedSpeedRpm: 3000, keLineRmsPerKrpm: 120 },
+    org: "poldane", modelCode: "PX-120", title: "PM servo generator, Ke 120 V/krpm, 8 poles", preset: "lab-own",
+    nameplate: {
+      machineKind: "pm-generator", nominalVoltageV: 360, voltageBasis: "line-line-rms", frequencyHz: 200, phases: 3, connection: "star", poles: 8, ratedSpeedRpm: 3000,
+      ratedKw: 4.5, ke: { value: 120, basis: "line-line-rms-per-krpm" }, magnetMaterial: "ndfeb", magnetReferenceC: 20,
+    },
+    plan: [1000, 2000, 3000].map((speedRpm) => ({ name: `Back-EMF at ${speedRpm} rpm`, testKind: "back-emf" as const, speedRpm, windowPercent: 2, roles: LL3, checks: PM_BACK_EMF })),
   },
-] as const;
+];
 
 /** 26 units: serials follow each maker's invented scheme. */
 export const demoUnits: ReadonlyArray<{ serial: string; modelCode: string }> = [

@@ -17,7 +17,10 @@ import {
   analysisOptionsSchema,
   ratingSchema,
   toleranceProfileSchema,
-  tolerancePresets,
+  PRESET_IDS,
+  profileFromPreset,
+  type PresetId,
+  type Rating,
   type AnalysisOptions,
   type AnalysisReport,
   type ChannelCalibration,
@@ -138,10 +141,12 @@ async function readJson(path: string, what: string): Promise<unknown> {
   }
 }
 
-async function loadTolerance(spec: string): Promise<ToleranceProfile> {
-  const preset = tolerancePresets.find((profile) => profile.id === spec);
-  if (preset) return preset;
-  if (!spec.endsWith(".json")) throw new UsageError(`--tolerance: no preset "${spec}"; presets are ${tolerancePresets.map((p) => p.id).join(", ")}`);
+async function loadTolerance(spec: string, rating: Rating | undefined): Promise<ToleranceProfile> {
+  if ((PRESET_IDS as readonly string[]).includes(spec)) {
+    if (!rating) throw new UsageError("--tolerance with a preset needs --rating: the bands depend on the nameplate");
+    return profileFromPreset(spec as PresetId, rating);
+  }
+  if (!spec.endsWith(".json")) throw new UsageError(`--tolerance: no preset "${spec}"; presets are ${PRESET_IDS.join(", ")}`);
   const result = toleranceProfileSchema.safeParse(await readJson(spec, "tolerance profile"));
   if (!result.success) throw new UsageError(`Tolerance profile ${spec} is not valid: ${result.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}`);
   return result.data;
@@ -213,7 +218,7 @@ async function main(): Promise<number> {
       if (!rating.success) throw new UsageError(`Rating ${args.ratingPath} is not valid: ${rating.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}`);
       args.options.rating = rating.data;
     }
-    if (args.tolerance) args.options.tolerance = await loadTolerance(args.tolerance);
+    if (args.tolerance) args.options.profile = await loadTolerance(args.tolerance, args.options.rating);
     const checked = analysisOptionsSchema.safeParse(args.options);
     if (!checked.success) throw new UsageError(`Invalid options: ${checked.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ")}`);
     const capture = await readCaptureFile(args.file, { calibration: args.calibration, ...(args.sampleRateHz ? { sampleRateHz: args.sampleRateHz } : {}) });

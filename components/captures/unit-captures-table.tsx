@@ -1,3 +1,4 @@
+import type { VerdictStatus } from "@/lib/analysis";
 import Link from "next/link";
 import { StatusTag } from "@/components/ui/status-tag";
 import { TEST_KIND_LABELS } from "@/lib/captures/input-schemas";
@@ -7,7 +8,7 @@ import { RefreshWhileBusy } from "./refresh-while-busy";
 
 type Row = {
   id: string; testKind: string; state: "uploading" | "queued" | "analysing" | "analysed" | "rejected" | "failed"; stateMessage: string | null;
-  originalName: string; createdAt: string; overall: "pass" | "marginal" | "fail" | "not-applicable" | null;
+  originalName: string; createdAt: string; overall: VerdictStatus | null;
   frequencyHz: number | null; worstThdPercent: number | null; vufPercent: number | null; keLineRmsPerKrpm: number | null;
 };
 

@@ -62,3 +62,34 @@ export async function listAnalysisHistory(scope: Scope, captureId: string) {
     .orderBy(desc(analyses.createdAt));
 }
 
+/**
+ * Stores a re-judgement of an analysed capture (the same figures judged against another profile
+ * version or plan step) as its current analysis; the earlier one stays in history. Refreshes the unit's
+ * latest verdict when this capture is its newest. False when the capture is no longer analysed.
+ */
+export async function recordRejudgement(scope: Scope, input: NewAnalysis): Promise<boolean> {
+  return getDb().transaction(async (tx) => {
+    const [capture] = await tx.select({ unitId: captures.unitId, createdAt: captures.createdAt }).from(captures)
+      .where(and(eq(captures.id, input.captureId), eq(captures.state, "analysed"), captureScopeWhere(scope))).for("update");
+    if (!capture) return false;
+    await tx.update(analyses).set({ current: false }).where(and(eq(analyses.captureId, input.captureId), eq(analyses.current, true)));
+    await tx.insert(analyses).values({ ...input, current: true, kind: "rejudge" });
+    await tx.update(units).set({ latestOverall: input.overall ?? null }).where(
+      and(eq(units.id, capture.unitId), unitScopeWhere(scope), sql`${units.latestCaptureAt} = ${capture.createdAt.toISOString()}`),
+    );
+    return true;
+  });
+}
+
+/** Analysed captures whose current result a re-judge would replace: one capture, one unit or a whole rating. */
+export async function listRejudgeCandidates(scope: Scope, target: { captureId: string } | { unitId: string } | { ratingId: string }, afterId: string | null, limit: number) {
+  const which = "captureId" in target ? eq(captures.id, target.captureId) : "unitId" in target ? eq(captures.unitId, target.unitId) : eq(units.ratingId, target.ratingId);
+  return getDb()
+    .select({ capture: captures, analysis: analyses, unitId: units.id, ratingId: units.ratingId })
+    .from(captures)
+    .innerJoin(units, eq(units.id, captures.unitId))
+    .innerJoin(analyses, and(eq(analyses.captureId, captures.id), eq(analyses.current, true)))
+    .where(and(which, eq(captures.state, "analysed"), unitScopeWhere(scope), afterId ? sql`${captures.id} > ${afterId}` : undefined))
+    .orderBy(captures.id)
+    .limit(limit);
+}

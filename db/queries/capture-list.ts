@@ -8,7 +8,7 @@ export type CaptureListFilter = {
   search?: string;
   state?: CaptureState;
   /** A verdict of the current analysis, or "unjudged" for captures without one. */
-  overall?: "pass" | "marginal" | "fail" | "not-applicable" | "unjudged";
+  overall?: "pass" | "marginal" | "inconclusive" | "fail" | "not-applicable" | "unjudged";
   testKind?: "no-load" | "load" | "back-emf" | "other";
   sort: CaptureSort;
   dir: "asc" | "desc";

@@ -51,7 +51,7 @@ export async function countUnitsByOverall(scope: Scope) {
     .from(units)
     .where(unitScopeWhere(scope))
     .groupBy(units.latestOverall);
-  const counts = { pass: 0, marginal: 0, fail: 0, "not-applicable": 0, untested: 0, total: 0 };
+  const counts = { pass: 0, marginal: 0, inconclusive: 0, fail: 0, "not-required": 0, "not-applicable": 0, untested: 0, total: 0 };
   for (const r of rows) {
     counts[r.overall ?? "untested"] += r.n;
     counts.total += r.n;

@@ -10,7 +10,7 @@ import { CaptureRejection } from "./rejection";
 import { suggestChannelRoles } from "./roles";
 import { analyseThreePhase } from "./three-phase";
 import { ANALYSIS_VERSION } from "./version";
-import { computeVerdicts, overallStatus } from "./verdicts";
+import { computeVerdicts, overallStatus, type JudgeOptions } from "./verdicts";
 import type { AnalysisReport, BackEmfReport } from "./report-schema";
 import type { ChannelRole, ParsedCapture, QualityWarning } from "./types";
 
@@ -100,7 +100,7 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
     warnings.push({ code: "thf-band-limited", message: `THF sums harmonics up to ${(Math.min(opts.harmonics, highest) * frequencyHz).toFixed(0)} Hz, short of the 5 kHz of IEC 60034-1: raise the harmonic order for a full THF` });
   }
   const measured = { channels: analyses.map((analysis) => analysis.report), frequencyHz, threePhase: threePhase?.report ?? null, backEmf };
-  const verdicts = opts.rating ? computeVerdicts(measured, opts.rating, opts.tolerance, opts.marginalGuardPercent) : [];
+  const verdicts = opts.rating && opts.profile ? computeVerdicts({ ...measured, warnings }, { rating: opts.rating, profile: opts.profile, checks: opts.checks, stepName: opts.stepName }) : [];
   return {
     analysisVersion: ANALYSIS_VERSION,
     sampleRateHz,
@@ -117,6 +117,15 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
     verdicts,
     overall: overallStatus(verdicts),
   };
+}
+
+/**
+ * Judges a stored report again (a new profile version, another plan step) from the figures it holds,
+ * without reading the file: the same verdicts the analysis would have given.
+ */
+export function judgeReport(report: AnalysisReport, options: JudgeOptions): AnalysisReport {
+  const verdicts = computeVerdicts(report, options);
+  return { ...report, verdicts, overall: overallStatus(verdicts) };
 }
 
 function computeBackEmfReport(

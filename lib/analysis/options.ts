@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { ratingSchema } from "./rating";
 import { channelRoleSchema } from "./report-schema";
-import { toleranceProfileSchema } from "./tolerance";
+import { CHECK_IDS, toleranceProfileSchema } from "./tolerance";
 
 export const analysisOptionsSchema = z.object({
   /** Keyed by column header as written; missing channels take the roles suggested from headers. */
@@ -11,9 +11,11 @@ export const analysisOptionsSchema = z.object({
   /** Highest harmonic order (IEEE 519 uses 50, IEC 61000-4-7 40). */
   harmonics: z.number().int().min(2).max(200).default(50),
   rating: ratingSchema.optional(),
-  tolerance: toleranceProfileSchema.optional(),
-  /** A pass within this percent of the distance from nominal to a limit is "marginal". */
-  marginalGuardPercent: z.number().min(0).max(100).default(10),
+  /** The rating's tolerance profile; verdicts need both a rating and a profile. */
+  profile: toleranceProfileSchema.optional(),
+  /** The plan step's checks (the others are not required for this capture) and its name. */
+  checks: z.array(z.enum(CHECK_IDS)).optional(),
+  stepName: z.string().optional(),
   groupingIec: z.boolean().default(false),
   deviationBasis: z.enum(["average-cycle", "worst-cycle"]).default("average-cycle"),
   /** Magnet temperature during a back-EMF test, to state Ke at a reference temperature. */

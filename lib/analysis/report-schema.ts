@@ -79,7 +79,11 @@ const powerSchema = z.object({
   }),
 });
 
-export const verdictStatusSchema = z.enum(["pass", "marginal", "fail", "not-applicable"]);
+/**
+ * pass < marginal < inconclusive < fail (see verdicts.ts); "not-required" takes no part in the overall.
+ * "not-applicable" appears only in reports made before engine 2.0.0.
+ */
+export const verdictStatusSchema = z.enum(["pass", "marginal", "inconclusive", "fail", "not-required", "not-applicable"]);
 
 export const verdictSchema = z.object({
   check: z.string(),
@@ -89,7 +93,10 @@ export const verdictSchema = z.object({
   lower: maybe,
   upper: maybe,
   status: verdictStatusSchema,
+  /** Why a check is inconclusive or not required, in words. */
+  reason: z.string().nullable().optional(),
   basis: z.string(),
+  /** The limit's source in words ("IEC 60034-1, zone A … — source not verified"). */
   source: z.string(),
 });
 

@@ -6,7 +6,7 @@ import { TEST_KINDS } from "./input-schemas";
 
 export const CAPTURE_SORTS = ["captured", "frequency", "thd", "vuf", "ke"] as const;
 export type CaptureSort = (typeof CAPTURE_SORTS)[number];
-export const CAPTURE_VERDICT_FILTERS = ["pass", "marginal", "fail", "not-applicable", "unjudged"] as const;
+export const CAPTURE_VERDICT_FILTERS = ["pass", "marginal", "inconclusive", "fail", "not-applicable", "unjudged"] as const;
 
 const blank = (v: unknown) => (Array.isArray(v) ? v[0] : v === "" ? undefined : v);
 const optional = <T extends z.ZodType>(schema: T) => z.preprocess(blank, schema.optional());

@@ -6,7 +6,7 @@ import { scopeFor } from "./scope";
 
 export const unitListQuerySchema = z.object({
   q: z.string().trim().max(64).optional(),
-  overall: z.enum(["pass", "marginal", "fail", "not-applicable", "untested"]).optional(),
+  overall: z.enum(["pass", "marginal", "inconclusive", "fail", "not-applicable", "untested"]).optional(),
   page: z.coerce.number().int().min(1).max(10_000).default(1),
 });
 

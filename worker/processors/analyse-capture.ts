@@ -4,7 +4,9 @@ import { recordAnalysis } from "@/db/queries/analyses";
 import { claimCaptureForAnalysis, setCaptureProgress, setCaptureState } from "@/db/queries/captures";
 import type { Scope } from "@/db/queries/scope";
 import type { AnalysisJobData } from "@/lib/server/queue";
-import { ConfigurationProblem, runAnalysis } from "./run-analysis";
+import { refreshUnitPlanState } from "@/db/queries/unit-plan";
+import { ConfigurationProblem, loadJudgement } from "@/lib/server/judgement";
+import { runAnalysis } from "./run-analysis";
 
 // Runs in a sandboxed child process (see worker/index.ts), so parsing and analysis never block
 // the parent's lock renewal. The job carries ids only; everything else is read from the database.
@@ -36,9 +38,11 @@ export default async function analyseCaptureJob(job: SandboxedJob<AnalysisJobDat
   };
 
   try {
-    const analysis = await runAnalysis(claimed.capture, claimed.rating, onProgress);
+    const judgement = await loadJudgement(claimed.rating, claimed.capture);
+    const analysis = await runAnalysis(claimed.capture, judgement, onProgress);
     await pending;
     const stored = await recordAnalysis(scope, analysis);
+    if (stored) await refreshUnitPlanState(scope, claimed.unit.id);
     return { outcome: stored ? "analysed" : "superseded" };
   } catch (err) {
     await pending;

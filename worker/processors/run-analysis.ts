@@ -4,26 +4,17 @@ import {
   type AnalysisReport, type ChannelRole,
 } from "@/lib/analysis";
 import type { NewAnalysis } from "@/db/queries/analyses";
-import type { Capture, Rating } from "@/db/schema";
+import type { Capture } from "@/db/schema";
 import { getEnv } from "@/lib/server/env";
-import { sha256Hex } from "@/lib/server/hash";
+import { ConfigurationProblem, toleranceDigest, type Judgement } from "@/lib/server/judgement";
 import { isPreconditionFailed, openObjectStream } from "@/lib/server/storage";
 
 /** Points per channel in the stored waveform preview: enough for a full-width plot, small as JSON. */
 export const PREVIEW_BUCKETS = 2000;
 
-/** A problem with the stored rating, not with the capture: retrying cannot help, but it is no rejection either. */
-export class ConfigurationProblem extends Error {
-  override name = "ConfigurationProblem";
-}
-
 const round = (v: number) => (Number.isFinite(v) ? Number(v.toPrecision(6)) : 0);
 
-function toleranceDigest(rating: Rating): string {
-  return sha256Hex(JSON.stringify({ nameplate: rating.nameplate, tolerance: rating.tolerance }));
-}
-
-function spectrumOf(report: AnalysisReport) {
+export function spectrumOf(report: AnalysisReport) {
   return {
     frequencyHz: report.frequencyHz,
     channels: report.channels.map((c) => ({
@@ -34,7 +25,7 @@ function spectrumOf(report: AnalysisReport) {
   };
 }
 
-function worstThd(report: AnalysisReport): number | null {
+export function worstThd(report: AnalysisReport): number | null {
   const values = report.channels.filter((c) => c.unit === "V").map((c) => c.thdFPercent).filter((v): v is number => v !== null);
   return values.length > 0 ? Math.max(...values) : null;
 }
@@ -44,14 +35,15 @@ function worstThd(report: AnalysisReport): number | null {
  * Progress runs 0–80 while reading (the parse happens as bytes arrive), then 90 once analysed.
  * Throws CaptureRejection for input the engine or the integrity check refuses.
  */
-export async function runAnalysis(capture: Capture, rating: Rating, onProgress: (percent: number) => void): Promise<NewAnalysis> {
+export async function runAnalysis(capture: Capture, judgement: Judgement, onProgress: (percent: number) => void): Promise<NewAnalysis> {
+  const { rating, step } = judgement;
   const nameplate = ratingSchema.safeParse(rating.nameplate);
-  const tolerance = toleranceProfileSchema.safeParse(rating.tolerance);
+  const tolerance = toleranceProfileSchema.safeParse(judgement.profile.profile);
   if (!nameplate.success || !tolerance.success) {
-    throw new ConfigurationProblem(`The rating ${rating.modelCode} is incomplete or invalid: fix it, then re-run the analysis`);
+    throw new ConfigurationProblem(`The rating ${rating.modelCode} or its tolerance profile is incomplete or invalid: fix it, then re-run the analysis`);
   }
-  const probeScales = capture.probeScales as Record<string, number>;
-  const calibration = Object.fromEntries(Object.entries(probeScales).map(([id, scale]) => [id, { scale }]));
+  const ids = new Set([...Object.keys(capture.probeScales), ...Object.keys(capture.channelOffsets)]);
+  const calibration = Object.fromEntries([...ids].map((id) => [id, { scale: capture.probeScales[id], offset: capture.channelOffsets[id] }]));
   const parser = createCaptureParser({ calibration, maxBytes: getEnv().UPLOAD_MAX_BYTES, expectedBytes: capture.sizeBytes });
   const hash = createHash("sha256");
   let read = 0;
@@ -76,12 +68,19 @@ export async function runAnalysis(capture: Capture, rating: Rating, onProgress: 
     );
   }
   const parsed = parser.finish();
+  const magnet = nameplate.data.magnetMaterial && capture.magnetTemperatureC !== null
+    ? { measuredC: capture.magnetTemperatureC, referenceC: nameplate.data.magnetReferenceC ?? 20, material: nameplate.data.magnetMaterial }
+    : undefined;
   const report = analyseCapture(parsed, {
     channelRoles: capture.channelRoles as Record<string, ChannelRole>,
     speedRpm: capture.speedRpm ?? undefined,
     poles: nameplate.data.poles,
+    harmonics: tolerance.data.harmonicOrder,
     rating: nameplate.data,
-    tolerance: tolerance.data,
+    profile: tolerance.data,
+    checks: step?.checks,
+    stepName: step?.name,
+    magnetTemperature: magnet,
   });
   onProgress(90);
   const envelope = computeWaveformEnvelope(parsed, PREVIEW_BUCKETS);
@@ -92,7 +91,10 @@ export async function runAnalysis(capture: Capture, rating: Rating, onProgress: 
   return {
     captureId: capture.id,
     analysisVersion: report.analysisVersion,
-    toleranceDigest: toleranceDigest(rating),
+    toleranceDigest: toleranceDigest(rating, judgement.profile, step),
+    profileVersionId: judgement.profile.id,
+    planStepId: step?.id ?? null,
+    kind: "analysis",
     report,
     overall: report.overall,
     frequencyHz: report.frequencyHz,

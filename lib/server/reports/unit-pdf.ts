@@ -1,3 +1,4 @@
+import { VERDICT_WORDS } from "@/lib/verdicts/words";
 import path from "node:path";
 import PDFDocument from "pdfkit";
 import type { UnitRecord } from "@/lib/dal/unit-report";
@@ -7,7 +8,7 @@ const FONT_DIR = path.join(process.cwd(), "node_modules", "dejavu-fonts-ttf", "t
 const REGULAR = path.join(FONT_DIR, "DejaVuSans.ttf");
 const BOLD = path.join(FONT_DIR, "DejaVuSans-Bold.ttf");
 
-const STATUS_WORD = { pass: "Within", marginal: "Near edge", fail: "OUTSIDE", "not-applicable": "Not judged" } as const;
+const STATUS_WORD = VERDICT_WORDS;
 const INK = "#141c21";
 const MUTED = "#4a5a63";
 

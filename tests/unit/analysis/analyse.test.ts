@@ -45,7 +45,8 @@ describe("analyseCapture report", () => {
     expect(relativeError(channel.rms, Math.sqrt((679 ** 2 + 14 ** 2 + 5 ** 2) / 2))).toBeLessThan(5e-4);
     expect(Math.abs(channel.thdFPercent! - (100 * Math.hypot(14, 5)) / 679)).toBeLessThan(0.05);
     expect(relativeError(report.frequencyHz, f)).toBeLessThan(1e-4);
-    expect(report.overall).toBe("not-applicable");
+    // Without a rating nothing is judged, and an unjudged capture is inconclusive, never a pass.
+    expect(report.overall).toBe("inconclusive");
     expect(report.verdicts).toEqual([]);
   });
 });

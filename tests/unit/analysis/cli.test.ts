@@ -28,7 +28,7 @@ describe("scripts/analyse.ts", () => {
   it("analyse prints a summary table and applies --channel roles and a rating (contract)", () => {
     const dir = mkdtempSync(path.join(tmpdir(), "emfolio-cli-"));
     const ratingPath = path.join(dir, "rating.json");
-    writeFileSync(ratingPath, JSON.stringify({ nominalVoltageV: 400, voltageBasis: "line-line-rms", frequencyHz: 50, phases: 3, connection: "star", poles: 4, ratedSpeedRpm: 1500 }));
+    writeFileSync(ratingPath, JSON.stringify({ machineKind: "wound-field-alternator", nominalVoltageV: 400, voltageBasis: "line-line-rms", frequencyHz: 50, phases: 3, connection: "star", poles: 4, ratedSpeedRpm: 1500 }));
     const result = analyse(path.join(FIXTURE_DIR, "layouts", "tab-units-row.csv"), "--channel", "Channel A=van", "--channel", "Channel C=ia", "--rating", ratingPath, "--tolerance", "iso-8528-5-g2");
     expect(result.status).toBe(0);
     expect(result.stdout).toMatch(/Channel A\s+van/);

@@ -45,7 +45,7 @@ describe("renderUnitPdf(record)", () => {
     writeFileSync(path.join(dir, "r.pdf"), pdf);
     const text = execFileSync("/usr/bin/pdftotext", [path.join(dir, "r.pdf"), "-"]).toString();
     expect(text).toContain("KG45-260301");
-    expect(text).toContain("OUTSIDE");
+    expect(text).toContain("Outside");
     expect(text).toContain("Advisory measurements");
   });
 });

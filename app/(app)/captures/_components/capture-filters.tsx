@@ -2,7 +2,7 @@ import { TEST_KIND_LABELS, TEST_KINDS } from "@/lib/captures/input-schemas";
 import type { CaptureListQuery } from "@/lib/captures/list-query";
 
 const STATES = [["uploading", "Uploading"], ["queued", "Queued"], ["analysing", "Analysing"], ["analysed", "Analysed"], ["rejected", "Rejected"], ["failed", "Failed"]] as const;
-const VERDICTS = [["fail", "Outside"], ["marginal", "Near edge"], ["pass", "Within"], ["not-applicable", "Not judged"], ["unjudged", "No result yet"]] as const;
+const VERDICTS = [["fail", "Outside"], ["inconclusive", "Inconclusive"], ["marginal", "Near edge"], ["pass", "Within"], ["not-applicable", "Not judged (older engine)"], ["unjudged", "No result yet"]] as const;
 
 function FilterSelect({ name, label, value, options }: { name: string; label: string; value: string | undefined; options: readonly (readonly [string, string])[] }) {
   return (
