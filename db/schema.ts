@@ -323,6 +323,22 @@ export const importProfiles = pgTable(
   (t) => [uniqueIndex("import_profiles_station_header_idx").on(t.stationId, t.headerSignature)],
 );
 
+/**
+ * One row per sign-in (its id travels in the session token). Sign-out and "end my other sessions" set
+ * ended_at; every request checks the row and the user's session_version.
+ */
+export const userSessions = pgTable(
+  "user_sessions",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    userId: uuid("user_id").notNull().references(() => users.id),
+    createdAt: createdAt(),
+    expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
+    endedAt: timestamp("ended_at", { withTimezone: true }),
+  },
+  (t) => [index("user_sessions_user_idx").on(t.userId)],
+);
+
 export type Organisation = typeof organisations.$inferSelect;
 export type User = typeof users.$inferSelect;
 export type Role = (typeof userRole.enumValues)[number];

@@ -4,7 +4,7 @@ import { organisations, users, type Role } from "@/db/schema";
 
 export type SessionUserRow = {
   id: string; email: string; name: string; role: Role; organisationId: string;
-  organisationName: string; organisationKind: "lab" | "manufacturer"; passwordHash: string;
+  organisationName: string; organisationKind: "lab" | "manufacturer"; passwordHash: string; sessionVersion: number;
 };
 
 export async function findActiveUserByEmail(email: string): Promise<SessionUserRow | undefined> {
@@ -12,6 +12,7 @@ export async function findActiveUserByEmail(email: string): Promise<SessionUserR
     .select({
       id: users.id, email: users.email, name: users.name, role: users.role, organisationId: users.organisationId,
       organisationName: organisations.name, organisationKind: organisations.kind, passwordHash: users.passwordHash,
+      sessionVersion: users.sessionVersion,
     })
     .from(users)
     .innerJoin(organisations, eq(organisations.id, users.organisationId))
@@ -21,7 +22,7 @@ export async function findActiveUserByEmail(email: string): Promise<SessionUserR
 }
 
 /** The account behind a session or a trusted script, with its organisation; undefined when gone or disabled. */
-export async function findActiveUserById(userId: string): Promise<Omit<SessionUserRow, "passwordHash"> | undefined> {
+export async function findActiveUserById(userId: string): Promise<Omit<SessionUserRow, "passwordHash" | "sessionVersion"> | undefined> {
   const rows = await getDb()
     .select({
       id: users.id, email: users.email, name: users.name, role: users.role, organisationId: users.organisationId,
@@ -59,6 +60,14 @@ export async function findUserIdByEmail(email: string) {
   return rows[0];
 }
 
+/** Disabling (or re-enabling) also ends every session the account had. */
 export async function setUserDisabled(userId: string, disabled: boolean) {
-  await getDb().update(users).set({ disabledAt: disabled ? new Date() : null }).where(eq(users.id, userId));
+  await getDb().update(users)
+    .set({ disabledAt: disabled ? new Date() : null, sessionVersion: sql`${users.sessionVersion} + 1` })
+    .where(eq(users.id, userId));
+}
+
+/** A role change ends every session, so the new role applies from the next sign-in. */
+export async function setUserRole(userId: string, role: Role) {
+  await getDb().update(users).set({ role, sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, userId));
 }

@@ -7,7 +7,7 @@ import { verifyPassword } from "./password";
 const DUMMY_HASH = "$2b$11$CwTycUXWue0Thq9StjUM0uJ8.9Cq2k1zZ6Qq7rWb8o6xjz3hYtY8e";
 
 export type AuthResult =
-  | { ok: true; user: { id: string; name: string; email: string; role: import("@/db/schema").Role; organisationId: string; organisationName: string; organisationKind: "lab" | "manufacturer" } }
+  | { ok: true; user: { id: string; name: string; email: string; role: import("@/db/schema").Role; organisationId: string; organisationName: string; organisationKind: "lab" | "manufacturer"; sessionVersion: number } }
   | { ok: false; message: string };
 
 /** Checks a password with per-account and per-address rate limits on failures. */

@@ -1,13 +1,15 @@
 import "server-only";
 import { getServerSession } from "next-auth";
+import { cache } from "react";
 import { forbidden, redirect } from "next/navigation";
 import type { Role } from "@/db/schema";
 import { authOptions, type SessionUser } from "./options";
 
-export async function getSessionUser(): Promise<SessionUser | null> {
+/** The signed-in user, re-checked against the database (lib/auth/options.ts), once per request. */
+export const getSessionUser = cache(async (): Promise<SessionUser | null> => {
   const session = await getServerSession(authOptions);
   return session?.user?.id ? session.user : null;
-}
+});
 
 /** For pages and server actions: no session -> sign-in page. */
 export async function requireUser(): Promise<SessionUser> {

@@ -1,4 +1,5 @@
-import type { NextAuthOptions } from "next-auth";
+import type { NextAuthOptions, Session } from "next-auth";
+import { endSession, findLiveSessionUser, insertSession } from "@/db/queries/sessions";
 import CredentialsModule from "next-auth/providers/credentials";
 import { z } from "zod";
 import type { Role } from "@/db/schema";
@@ -21,8 +22,11 @@ function clientAddress(headers: Record<string, unknown> | undefined): string {
   return first || (typeof real === "string" ? real : "") || "unknown";
 }
 
+/** A session lasts one working shift at most; sign-out, a password change or a disable end it sooner. */
+export const SESSION_TTL_S = 8 * 60 * 60;
+
 export const authOptions: NextAuthOptions = {
-  session: { strategy: "jwt", maxAge: 12 * 60 * 60 },
+  session: { strategy: "jwt", maxAge: SESSION_TTL_S },
   pages: { signIn: "/sign-in", error: "/sign-in" },
   providers: [
     CredentialsProvider({
@@ -42,8 +46,10 @@ export const authOptions: NextAuthOptions = {
     redirect({ url, baseUrl }) {
       return new URL(safeRedirectPath(url, baseUrl), baseUrl).toString();
     },
-    jwt({ token, user }) {
+    async jwt({ token, user }) {
       if (user) {
+        token.sid = await insertSession(user.id, SESSION_TTL_S);
+        token.sv = user.sessionVersion;
         token.uid = user.id;
         token.role = user.role;
         token.orgId = user.organisationId;
@@ -52,12 +58,20 @@ export const authOptions: NextAuthOptions = {
       }
       return token;
     },
-    session({ session, token }) {
-      session.user = {
-        id: token.uid, name: token.name ?? "", email: token.email ?? "", role: token.role,
-        organisationId: token.orgId, organisationName: token.orgName, organisationKind: token.orgKind,
-      };
+    // Every read of the session re-checks the account: an ended session, a disabled account or a
+    // bumped session_version (password change, role change, sign out everywhere) reads as signed out.
+    // Role and organisation come from the database, not from the token.
+    async session({ session, token }) {
+      const live = token.sid && token.uid ? await findLiveSessionUser(token.sid, token.uid, token.sv ?? -1) : undefined;
+      if (!live) return { expires: session.expires } as Session;
+      session.user = { ...live, sessionId: token.sid };
       return session;
+    },
+  },
+  events: {
+    // Sign-out ends this token's session on the server: a copy of the cookie replayed later is refused.
+    async signOut({ token }) {
+      if (token?.sid) await endSession(token.sid);
     },
   },
 };
@@ -65,4 +79,6 @@ export const authOptions: NextAuthOptions = {
 export type SessionUser = {
   id: string; name: string; email: string; role: Role;
   organisationId: string; organisationName: string; organisationKind: "lab" | "manufacturer";
+  /** The user_sessions row of this sign-in (absent for actors made by trusted scripts). */
+  sessionId?: string;
 };
