@@ -1,7 +1,7 @@
-import { and, asc, desc, eq, ilike, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, ilike, isNull, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { captures, organisations, ratings, units, type Unit } from "@/db/schema";
-import { unitScopeWhere, type Scope } from "./scope";
+import { linkedClientWhere, unitScopeWhere, type Scope } from "./scope";
 
 export type UnitListFilter = { search?: string; overall?: Unit["latestOverall"] | "untested"; limit?: number; offset?: number };
 
@@ -59,19 +59,25 @@ export async function countUnitsByOverall(scope: Scope) {
   return counts;
 }
 
-/** Ratings a lab may register new units against: every rating on file, with its owner's name. */
+/** A lab registers units only against its own ratings of clients it is linked to. */
+function registrableRatingWhere(labId: string) {
+  return and(eq(ratings.labId, labId), isNull(ratings.retiredAt), linkedClientWhere(labId, ratings.organisationId));
+}
+
+/** Ratings a lab may register new units against (its own, for its own clients), with the owner's name. */
 export async function listRatingsForRegistration(scope: Scope) {
   if (scope.kind !== "lab") return [];
   return getDb()
     .select({ id: ratings.id, modelCode: ratings.modelCode, title: ratings.title, owner: organisations.name })
     .from(ratings)
     .innerJoin(organisations, eq(organisations.id, ratings.organisationId))
+    .where(registrableRatingWhere(scope.labId))
     .orderBy(asc(organisations.name), asc(ratings.modelCode));
 }
 
 export async function getRatingForRegistration(scope: Scope, ratingId: string) {
   if (scope.kind !== "lab") return undefined;
-  const rows = await getDb().select().from(ratings).where(eq(ratings.id, ratingId)).limit(1);
+  const rows = await getDb().select().from(ratings).where(and(eq(ratings.id, ratingId), registrableRatingWhere(scope.labId))).limit(1);
   return rows[0];
 }
 

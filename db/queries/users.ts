@@ -1,6 +1,7 @@
 import { and, asc, eq, isNull, or, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { organisations, users, type Role } from "@/db/schema";
+import { linkedClientWhere } from "./scope";
 
 export type SessionUserRow = {
   id: string; email: string; name: string; role: Role; organisationId: string;
@@ -35,18 +36,25 @@ export async function findActiveUserById(userId: string): Promise<Omit<SessionUs
   return rows[0];
 }
 
-/** Accounts a lab manager administers: the lab's own staff and every client organisation's users. */
+/** Accounts a lab manager administers: the lab's own staff and the users of the clients it is linked to. */
 export async function listUsersForAdmin(labId: string) {
   return getDb()
     .select({ id: users.id, email: users.email, name: users.name, role: users.role, organisation: organisations.name, disabledAt: users.disabledAt })
     .from(users)
     .innerJoin(organisations, eq(organisations.id, users.organisationId))
-    .where(or(eq(organisations.id, labId), eq(organisations.kind, "manufacturer")))
+    .where(or(eq(organisations.id, labId), and(eq(organisations.kind, "manufacturer"), linkedClientWhere(labId, organisations.id))))
     .orderBy(asc(organisations.name), asc(users.name));
 }
 
 export async function listOrganisations() {
   return getDb().select().from(organisations).orderBy(asc(organisations.kind), asc(organisations.name));
+}
+
+/** The lab itself and the client organisations it is linked to: where its manager may invite people. */
+export async function listOrganisationsForLab(labId: string) {
+  return getDb().select().from(organisations)
+    .where(or(eq(organisations.id, labId), and(eq(organisations.kind, "manufacturer"), linkedClientWhere(labId, organisations.id))))
+    .orderBy(asc(organisations.kind), asc(organisations.name));
 }
 
 export async function insertUser(values: { email: string; name: string; role: Role; organisationId: string; passwordHash: string }) {

@@ -1,6 +1,6 @@
 import "server-only";
 import { randomBytes } from "node:crypto";
-import { insertUser, listOrganisations, listUsersForAdmin, setUserDisabled } from "@/db/queries/users";
+import { insertUser, listOrganisationsForLab, listUsersForAdmin, setUserDisabled } from "@/db/queries/users";
 import type { Role } from "@/db/schema";
 import { requireRole } from "@/lib/auth/guards";
 import { hashPassword } from "@/lib/auth/password";
@@ -8,22 +8,23 @@ import { sendPasswordLink } from "@/lib/auth/password-links";
 
 export async function getPeopleView() {
   const admin = await requireRole("admin");
-  const [people, orgs] = await Promise.all([listUsersForAdmin(admin.organisationId), listOrganisations()]);
+  const [people, orgs] = await Promise.all([listUsersForAdmin(admin.organisationId), listOrganisationsForLab(admin.organisationId)]);
   return {
     selfId: admin.id,
     people,
-    organisations: orgs.filter((o) => o.kind === "manufacturer" || o.id === admin.organisationId).map((o) => ({ id: o.id, name: o.name, kind: o.kind })),
+    organisations: orgs.map((o) => ({ id: o.id, name: o.name, kind: o.kind })),
   };
 }
 
 export type Invitation = { email: string; name: string; role: Role; organisationId: string };
 export type InviteOutcome = { ok: true } | { ok: false; message: string; field?: "email" };
 
-/** A lab manager invites a person to their own lab or a client account to a client organisation. */
+/** A lab manager invites a person to their own lab or a client account to a client the lab is linked to. */
 export async function invitePerson(input: Invitation): Promise<InviteOutcome> {
   const admin = await requireRole("admin");
-  const org = (await listOrganisations()).find((o) => o.id === input.organisationId);
-  if (!org) return { ok: false, message: "That organisation does not exist." };
+  // Another lab, or a client this lab does not work for, reads the same as a missing one.
+  const org = (await listOrganisationsForLab(admin.organisationId)).find((o) => o.id === input.organisationId);
+  if (!org) return { ok: false, message: "That organisation does not exist or is not one of your lab's clients." };
   const clientRole = input.role === "manufacturer";
   if (clientRole !== (org.kind === "manufacturer")) {
     return { ok: false, message: clientRole ? "A client account belongs to a client organisation." : "Lab roles belong to the lab." };
