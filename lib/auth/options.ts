@@ -4,6 +4,7 @@ import CredentialsModule from "next-auth/providers/credentials";
 import { z } from "zod";
 import type { Role } from "@/db/schema";
 import { authenticate } from "./authenticate";
+import { clientAddressFrom } from "./client-address";
 import { safeRedirectPath } from "./redirect-target";
 
 // next-auth 4 ships CommonJS: Node scripts see the module object where the bundler sees the function.
@@ -15,12 +16,6 @@ export const credentialsSchema = z.object({
   password: z.string().min(1).max(200),
 });
 
-function clientAddress(headers: Record<string, unknown> | undefined): string {
-  const forwarded = headers?.["x-forwarded-for"];
-  const first = typeof forwarded === "string" ? forwarded.split(",")[0]?.trim() : undefined;
-  const real = headers?.["x-real-ip"];
-  return first || (typeof real === "string" ? real : "") || "unknown";
-}
 
 /** A session lasts one working shift at most; sign-out, a password change or a disable end it sooner. */
 export const SESSION_TTL_S = 8 * 60 * 60;
@@ -35,7 +30,7 @@ export const authOptions: NextAuthOptions = {
       async authorize(raw, req) {
         const parsed = credentialsSchema.safeParse(raw);
         if (!parsed.success) throw new Error("Enter an email address and a password.");
-        const result = await authenticate(parsed.data.email, parsed.data.password, clientAddress(req?.headers));
+        const result = await authenticate(parsed.data.email, parsed.data.password, clientAddressFrom(req?.headers));
         if (!result.ok) throw new Error(result.message);
         return result.user;
       },

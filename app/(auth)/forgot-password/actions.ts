@@ -1,7 +1,9 @@
 "use server";
 
 import { z } from "zod";
-import { requestPasswordResetLink } from "@/lib/dal/password-link";
+import { headers } from "next/headers";
+import { clientAddressFrom } from "@/lib/auth/client-address";
+import { acceptPasswordResetRequest } from "@/lib/dal/password-link";
 
 const forgotSchema = z.object({ email: z.email().max(254) });
 const SAME_ANSWER = "If that address has an account, a reset link is on its way. It works once, for one hour.";
@@ -9,7 +11,9 @@ const SAME_ANSWER = "If that address has an account, a reset link is on its way.
 export async function requestPasswordReset(_prev: string, form: FormData): Promise<string> {
   const parsed = forgotSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return "Enter a valid email address.";
-  // The answer never reveals whether the account exists.
-  await requestPasswordResetLink(parsed.data.email);
+  // The answer never reveals whether the account exists, in its words or its timing.
+  if (!(await acceptPasswordResetRequest(parsed.data.email, clientAddressFrom(await headers())))) {
+    return "Too many reset requests from your address. Try again in an hour.";
+  }
   return SAME_ANSWER;
 }
