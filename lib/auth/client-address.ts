@@ -1,7 +1,7 @@
 /**
- * The client's address for the per-address limits: the first X-Forwarded-For entry. `next start` fills
- * that header from the socket only when the client did not send one, so without a proxy in front that
- * overwrites it a client can choose its address here (see docs: not yet bound to the socket).
+ * The client's address for the per-address limits: X-Forwarded-For as the app's server
+ * (scripts/serve.ts) rewrote it from the socket, or from a trusted proxy's report (TRUSTED_PROXIES).
+ * A value a client sends itself does not survive that server.
  */
 export function clientAddressFrom(headers: Headers | Record<string, unknown> | undefined): string {
   const raw = headers instanceof Headers ? headers.get("x-forwarded-for") : headers?.["x-forwarded-for"];

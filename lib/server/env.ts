@@ -47,6 +47,9 @@ export const envSchema = z.object({
   // Tries per analysis job for infrastructure errors (bad input is never retried).
   ANALYSIS_ATTEMPTS: int(5),
   SIGN_IN_MAX_ATTEMPTS: int(8),
+  // Comma-separated addresses of reverse proxies whose X-Forwarded-For is believed (scripts/serve.ts);
+  // empty: the client address is the socket's.
+  TRUSTED_PROXIES: z.preprocess(blankToUndefined, z.string().regex(/^[0-9a-fA-F:.,\s]+$/, "must be comma-separated IP addresses").optional()),
   SIGN_IN_WINDOW_S: int(900),
   // Attachments (uploadthing). Optional here so the worker and scripts start without them; the
   // attachment code names a missing token when it is used. The names are the ones the SDK reads.
