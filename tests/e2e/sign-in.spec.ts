@@ -11,7 +11,7 @@ test("each role signs in and sees its own navigation", async ({ page }) => {
   for (const [who, links] of Object.entries(expected) as [keyof typeof expected, readonly string[]][]) {
     await signIn(page, who);
     const nav = page.getByRole("navigation", { name: "Main" });
-    await expect(nav.getByRole("link")).toHaveText(["Emfolio", ...links]);
+    await expect(nav.getByRole("link")).toHaveText(["Emfolio", ...links, "Your sessions"]);
     await expect(page.getByRole("complementary", { name: "Safety caution" })).toBeVisible();
     await signOut(page);
   }
