@@ -29,7 +29,13 @@ function CaptureLiveInner({ initial, canReanalyse }: { initial: CaptureStatusVie
         <span className="text-sm font-semibold">State</span>
         <CaptureStateBadge state={c.state} progress={c.progress} />
         {analysis ? <><span className="text-sm font-semibold">Overall</span><span data-testid="overall"><StatusTag status={analysis.report.overall} /></span></> : null}
-        {analysis ? <span className="text-xs text-ink-600">Current run <time data-testid="current-run" dateTime={analysis.createdAt}>{fmtDate(analysis.createdAt)}</time> · engine {analysis.analysisVersion}</span> : null}
+        {analysis ? (
+          <span className="text-xs text-ink-600">
+            Current run <time data-testid="current-run" dateTime={analysis.createdAt}>{fmtDate(analysis.createdAt)}</time> · engine {analysis.analysisVersion}
+            {analysis.profileVersion !== null ? ` · judged against profile v${analysis.profileVersion}` : ""}
+            {analysis.stepName ? ` · plan step “${analysis.stepName}”` : " · no plan step matched"}
+          </span>
+        ) : null}
         {canReanalyse && isFinalState(c.state) ? <span className="ml-auto"><ReanalyseButton captureId={c.id} /></span> : null}
         {c.state === "analysing" ? <div className="w-full"><ProgressBar fraction={c.progress / 100} label="Analysis" /></div> : null}
         {c.state === "queued" ? <p className="w-full text-xs text-ink-600">{c.stateMessage ?? "Waiting for a worker; this page updates by itself."}</p> : null}

@@ -1,4 +1,4 @@
-import type { CaptureRegistration, UploadPlan } from "@/lib/captures/input-schemas";
+import type { CaptureCorrection, CaptureRegistration, UploadPlan } from "@/lib/captures/input-schemas";
 import type { CaptureStatusView, SpectrumView, WaveformPreview } from "@/lib/dal/captures";
 
 // Typed fetchers for the session handlers under /api/captures. Errors carry the server's message.
@@ -39,3 +39,6 @@ export const postReanalyse = (id: string) => call<{ queued: number }>(`/api/capt
 export const postReanalyseRating = (ratingId: string) => call<{ queued: number }>("/api/captures/reanalyse", { method: "POST", body: JSON.stringify({ ratingId }) });
 
 export const isFinalState = (state: CaptureStatusView["state"]) => state === "analysed" || state === "rejected" || state === "failed";
+
+export const patchCapture = (id: string, correction: CaptureCorrection) =>
+  call<CaptureStatusView>(`/api/captures/${id}`, { method: "PATCH", body: JSON.stringify(correction) });

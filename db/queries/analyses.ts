@@ -1,6 +1,6 @@
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { analyses, captures, units, type Analysis } from "@/db/schema";
+import { analyses, captures, planSteps, toleranceProfiles, units, type Analysis } from "@/db/schema";
 import { captureScopeWhere } from "./captures";
 import { unitScopeWhere, type Scope } from "./scope";
 
@@ -37,15 +37,18 @@ export async function recordAnalysis(scope: Scope, input: NewAnalysis): Promise<
   });
 }
 
-export async function getCurrentAnalysis(scope: Scope, captureId: string): Promise<Analysis | undefined> {
+export async function getCurrentAnalysis(scope: Scope, captureId: string): Promise<(Analysis & { profileVersion: number | null; stepName: string | null }) | undefined> {
   const rows = await getDb()
-    .select({ analysis: analyses })
+    .select({ analysis: analyses, profileVersion: toleranceProfiles.version, stepName: planSteps.name })
     .from(analyses)
     .innerJoin(captures, eq(captures.id, analyses.captureId))
     .innerJoin(units, eq(units.id, captures.unitId))
+    .leftJoin(toleranceProfiles, eq(toleranceProfiles.id, analyses.profileVersionId))
+    .leftJoin(planSteps, eq(planSteps.id, analyses.planStepId))
     .where(and(eq(analyses.captureId, captureId), eq(analyses.current, true), unitScopeWhere(scope)))
     .limit(1);
-  return rows[0]?.analysis;
+  const row = rows[0];
+  return row ? { ...row.analysis, profileVersion: row.profileVersion, stepName: row.stepName } : undefined;
 }
 
 /** Earlier and current runs of one capture, newest first, without the bulky columns. */
@@ -53,11 +56,13 @@ export async function listAnalysisHistory(scope: Scope, captureId: string) {
   return getDb()
     .select({
       id: analyses.id, analysisVersion: analyses.analysisVersion, toleranceDigest: analyses.toleranceDigest, current: analyses.current,
-      overall: analyses.overall, createdAt: analyses.createdAt,
+      overall: analyses.overall, createdAt: analyses.createdAt, kind: analyses.kind, profileVersion: toleranceProfiles.version, stepName: planSteps.name,
     })
     .from(analyses)
     .innerJoin(captures, eq(captures.id, analyses.captureId))
     .innerJoin(units, eq(units.id, captures.unitId))
+    .leftJoin(toleranceProfiles, eq(toleranceProfiles.id, analyses.profileVersionId))
+    .leftJoin(planSteps, eq(planSteps.id, analyses.planStepId))
     .where(and(eq(analyses.captureId, captureId), unitScopeWhere(scope)))
     .orderBy(desc(analyses.createdAt));
 }

@@ -31,7 +31,7 @@ export async function setCaptureUpload(scope: Scope, captureId: string, upload: 
 export async function getCaptureDetail(scope: Scope, captureId: string) {
   const rows = await getDb()
     .select({
-      capture: captures, serial: units.serial, unitOrganisationId: units.organisationId, ratingTitle: ratings.title,
+      capture: captures, serial: units.serial, unitOrganisationId: units.organisationId, ratingId: ratings.id, ratingTitle: ratings.title,
       modelCode: ratings.modelCode, stationName: stations.name, uploadedBy: users.name,
     })
     .from(captures)
@@ -102,7 +102,7 @@ export async function listCapturesForUnit(scope: Scope, unitId: string) {
       id: captures.id, testKind: captures.testKind, state: captures.state, stateMessage: captures.stateMessage,
       originalName: captures.originalName, speedRpm: captures.speedRpm, createdAt: captures.createdAt,
       overall: analyses.overall, frequencyHz: analyses.frequencyHz, worstThdPercent: analyses.worstThdPercent,
-      vufPercent: analyses.vufPercent, keLineRmsPerKrpm: analyses.keLineRmsPerKrpm,
+      vufPercent: analyses.vufPercent, keLineRmsPerKrpm: analyses.keLineRmsPerKrpm, judgedStepId: analyses.planStepId,
     })
     .from(captures)
     .innerJoin(units, eq(units.id, captures.unitId))

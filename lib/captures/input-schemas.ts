@@ -49,3 +49,26 @@ export const presignPartsSchema = z.object({
 export type UploadPlan =
   | { kind: "single"; method: "PUT"; url: string; headers: Record<string, string>; expiresInS: number }
   | { kind: "multipart"; partSize: number; parts: { partNumber: number; url: string }[]; expiresInS: number };
+
+/** Offsets added after scaling, in volts or amps, per column header. */
+export const channelOffsetsSchema = z
+  .record(z.string().min(1).max(120), z.number().finite().min(-1e6).max(1e6))
+  .refine((r) => Object.keys(r).length <= MAX_CHANNELS, `At most ${MAX_CHANNELS} channels`);
+
+/**
+ * A correction of a capture's settings after upload. Only the fields given change; a reason is
+ * always recorded, and the capture is analysed again with the new settings.
+ */
+export const captureCorrectionSchema = z.object({
+  channelRoles: channelRolesSchema.optional(),
+  probeScales: probeScalesSchema.optional(),
+  channelOffsets: channelOffsetsSchema.optional(),
+  speedRpm: z.number().min(1, "Shaft speed starts at 1 rpm").max(200_000).nullable().optional(),
+  testKind: z.enum(TEST_KINDS).optional(),
+  /** null: match the plan step from test kind and speed. */
+  planStepId: z.uuid().nullable().optional(),
+  magnetTemperatureC: z.number().min(-60).max(250).nullable().optional(),
+  reason: z.string().trim().min(5, "Say why the settings change (at least 5 characters)").max(1000),
+});
+export type CaptureCorrection = z.input<typeof captureCorrectionSchema>;
+export const CORRECTABLE_FIELDS = ["channelRoles", "probeScales", "channelOffsets", "speedRpm", "testKind", "planStepId", "magnetTemperatureC"] as const;

@@ -25,6 +25,7 @@ const mib = (bytes: number) => `${(bytes / 1024 ** 2).toFixed(1)} MiB`;
 
 async function resolveUnit(scope: Actor["scope"] & { kind: "lab" }, input: Registration) {
   const known = await getUnitBySerial(scope, input.unitSerial);
+  if (known?.unit.retiredAt) throw new HttpError(422, `Unit ${input.unitSerial} was retired (registered by mistake): use the unit's correct serial`);
   if (known) return known.unit;
   if (!input.newUnitRatingId) throw new HttpError(422, `No unit with serial ${input.unitSerial} in this lab: register it with its rating first`);
   const rating = await getRatingForRegistration(scope, input.newUnitRatingId);

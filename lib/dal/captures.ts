@@ -5,20 +5,25 @@ import { getUnitBySerial, listRatingsForRegistration } from "@/db/queries/units"
 import type { AnalysisReport } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
 import { presignDownload } from "@/lib/server/storage";
+import { listActivePlanSteps } from "@/db/queries/judgement";
 import { requirePageActor, type Actor } from "./actor";
+import { getCaptureCorrections } from "./capture-corrections";
 
 // One read path for the capture page, the browser's polling handlers and the bench API.
 
 export type CaptureStatusView = {
-  id: string; unitId: string; serial: string; modelCode: string; ratingTitle: string;
+  id: string; unitId: string; serial: string; ratingId: string; modelCode: string; ratingTitle: string;
   state: "uploading" | "queued" | "analysing" | "analysed" | "rejected" | "failed";
   stateMessage: string | null; progress: number; attempts: number;
   testKind: string; speedRpm: number | null; channelRoles: Record<string, string>; probeScales: Record<string, number>;
+  channelOffsets: Record<string, number>; magnetTemperatureC: number | null; planStepId: string | null;
   notes: string; originalName: string; sizeBytes: number; sha256: string; stationName: string | null; uploadedBy: string | null;
   createdAt: string; uploadedAt: string | null; analysedAt: string | null;
   analysis: null | {
     analysisVersion: string; overall: string | null; frequencyHz: number | null; worstThdPercent: number | null;
     vufPercent: number | null; keLineRmsPerKrpm: number | null; createdAt: string; report: AnalysisReport;
+    /** The tolerance profile version and plan step the verdicts were judged against. */
+    profileVersion: number | null; stepName: string | null; kind: "analysis" | "rejudge";
   };
 };
 
@@ -29,10 +34,10 @@ export async function getCaptureStatusView(actor: Actor, captureId: string): Pro
   // A capture queued again for re-analysis keeps showing its current result until the new one lands.
   const analysis = c.state === "uploading" ? undefined : await getCurrentAnalysis(actor.scope, captureId);
   return {
-    id: c.id, unitId: c.unitId, serial: found.serial, modelCode: found.modelCode, ratingTitle: found.ratingTitle,
+    id: c.id, unitId: c.unitId, serial: found.serial, ratingId: found.ratingId, modelCode: found.modelCode, ratingTitle: found.ratingTitle,
     state: c.state, stateMessage: c.stateMessage, progress: c.progress, attempts: c.attempts,
     testKind: c.testKind, speedRpm: c.speedRpm,
-    channelRoles: c.channelRoles as Record<string, string>, probeScales: c.probeScales as Record<string, number>,
+    channelRoles: c.channelRoles, probeScales: c.probeScales, channelOffsets: c.channelOffsets, magnetTemperatureC: c.magnetTemperatureC, planStepId: c.planStepId,
     notes: c.notes, originalName: c.originalName, sizeBytes: c.sizeBytes, sha256: c.sha256,
     stationName: found.stationName, uploadedBy: found.uploadedBy,
     createdAt: c.createdAt.toISOString(), uploadedAt: c.uploadedAt?.toISOString() ?? null, analysedAt: c.analysedAt?.toISOString() ?? null,
@@ -41,6 +46,7 @@ export async function getCaptureStatusView(actor: Actor, captureId: string): Pro
           analysisVersion: analysis.analysisVersion, overall: analysis.overall, frequencyHz: analysis.frequencyHz,
           worstThdPercent: analysis.worstThdPercent, vufPercent: analysis.vufPercent, keLineRmsPerKrpm: analysis.keLineRmsPerKrpm,
           createdAt: analysis.createdAt.toISOString(), report: analysis.report as AnalysisReport,
+          profileVersion: analysis.profileVersion, stepName: analysis.stepName, kind: analysis.kind,
         }
       : null,
   };
@@ -88,7 +94,13 @@ export async function getCapturePageView(captureId: string) {
   const capture = await getCaptureStatusView(actor, captureId);
   if (!capture) return null;
   const canReanalyse = actor.scope.kind === "lab" && (actor.role === "admin" || actor.role === "qa");
-  return { capture, history: await getCaptureHistory(actor, captureId), canReanalyse };
+  const canCorrect = actor.scope.kind === "lab" && (actor.role === "admin" || actor.role === "qa" || actor.role === "operator");
+  const [history, corrections, steps] = await Promise.all([
+    getCaptureHistory(actor, captureId),
+    canCorrect ? getCaptureCorrections(actor, captureId) : Promise.resolve([]),
+    canCorrect ? listActivePlanSteps(capture.ratingId) : Promise.resolve([]),
+  ]);
+  return { capture, history, canReanalyse, canCorrect, corrections, planSteps: steps.map((s) => ({ id: s.id, name: s.name })) };
 }
 
 /** The unit page's captures list; the unit itself was already checked by the caller's scope. */

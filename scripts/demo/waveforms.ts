@@ -11,6 +11,10 @@ export type DemoWave = {
   noisePercent?: number;
   cycles?: number;
   sampleRateHz?: number;
+  /** Flat tops: every recorded value held within ± this percent of the line peak (a saturated input). */
+  clipAtPercent?: number;
+  /** Multiplies what is written (0.01: a 100:1 probe recorded as if it were 1:1). */
+  recordedScale?: number;
   seed: number;
 };
 
@@ -43,6 +47,10 @@ export function renderDemoCsv(w: DemoWave): string {
     for (const [h, a] of harmonics) v += a * Math.sin(h * (omega * t + shift));
     return (scale[k] ?? 1) * phasePeak * v;
   };
+  const linePeak = w.lineVoltsRms * Math.SQRT2;
+  const clip = w.clipAtPercent !== undefined ? (w.clipAtPercent / 100) * linePeak : Number.POSITIVE_INFINITY;
+  const k = w.recordedScale ?? 1;
+  const out = (v: number) => (k * Math.max(-clip, Math.min(clip, v))).toFixed(k < 0.1 ? 5 : 3);
   const lines = [
     "Instrument,Demo bench recorder",
     `Sample Interval,${(1 / fs).toExponential(6)}`,
@@ -53,13 +61,13 @@ export function renderDemoCsv(w: DemoWave): string {
     for (let i = 0; i < n; i++) {
       const t = i / fs;
       const [a, b, c] = [phase(0, t), phase(1, t), phase(2, t)];
-      lines.push(`${t.toExponential(6)},${(a - b + noise * gauss()).toFixed(3)},${(b - c + noise * gauss()).toFixed(3)},${(c - a + noise * gauss()).toFixed(3)}`);
+      lines.push(`${t.toExponential(6)},${out(a - b + noise * gauss())},${out(b - c + noise * gauss())},${out(c - a + noise * gauss())}`);
     }
   } else {
     lines.push("Time (s),V_OUT (V)");
     for (let i = 0; i < n; i++) {
       const t = i / fs;
-      lines.push(`${t.toExponential(6)},${(phase(0, t) + noise * gauss()).toFixed(3)}`);
+      lines.push(`${t.toExponential(6)},${out(phase(0, t) + noise * gauss())}`);
     }
   }
   return `${lines.join("\n")}\n`;

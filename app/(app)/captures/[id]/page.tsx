@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { CaptureLive } from "@/components/captures/capture-live";
+import { CorrectionForm } from "@/components/captures/correction-form";
 import { fmtDate } from "@/components/captures/format";
 import { PageHeader } from "@/components/shell/page-header";
 import { SafetyCaution } from "@/components/shell/safety-caution";
@@ -16,6 +17,8 @@ export default async function CapturePage({ params }: { params: Promise<{ id: st
   if (!view) notFound();
   const { capture: c, history } = view;
   const roles = Object.entries(c.channelRoles);
+  const channels = c.analysis ? c.analysis.report.channels.map((ch) => ch.id) : Object.keys(c.channelRoles);
+  const scales = Object.entries(c.probeScales).map(([k, v]) => `${k} ×${v}`).concat(Object.entries(c.channelOffsets).map(([k, v]) => `${k} ${v >= 0 ? "+" : ""}${v}`));
   return (
     <>
       <PageHeader
@@ -30,11 +33,26 @@ export default async function CapturePage({ params }: { params: Promise<{ id: st
         <div><dt className="text-ink-600">Bench</dt><dd className="mt-1">{c.stationName ?? "—"}</dd></div>
         <div><dt className="text-ink-600">Uploaded</dt><dd className="mt-1">{fmtDate(c.uploadedAt ?? c.createdAt)}{c.uploadedBy ? ` by ${c.uploadedBy}` : ""}</dd></div>
         <div className="col-span-2"><dt className="text-ink-600">Channel roles</dt><dd className="mt-1 font-mono text-xs">{roles.length ? roles.map(([k, v]) => `${k} → ${v}`).join(" · ") : "from the headers"}</dd></div>
+        <div className="col-span-2"><dt className="text-ink-600">Probe ratios and offsets</dt><dd className="mt-1 font-mono text-xs">{scales.length ? scales.join(" · ") : "none entered (×1)"}</dd></div>
         <div><dt className="text-ink-600">Size</dt><dd className="mt-1 tabular-nums">{(c.sizeBytes / 1024 ** 2).toFixed(2)} MiB</dd></div>
         <div><dt className="text-ink-600">sha256</dt><dd className="mt-1 truncate font-mono text-xs" title={c.sha256}>{c.sha256}</dd></div>
         {c.notes ? <div className="col-span-full"><dt className="text-ink-600">Notes</dt><dd className="mt-1 whitespace-pre-wrap">{c.notes}</dd></div> : null}
       </dl>
+      {view.canCorrect && ["analysed", "rejected", "failed"].includes(c.state) ? <div className="mb-6"><CorrectionForm capture={c} channels={channels} planSteps={view.planSteps} /></div> : null}
       <CaptureLive initial={c} canReanalyse={view.canReanalyse} />
+      {view.corrections.length > 0 ? (
+        <section className="mt-8" aria-labelledby="corrections">
+          <h2 id="corrections" className="mb-2 text-lg font-semibold">Corrections</h2>
+          <ul className="space-y-2 text-sm">
+            {view.corrections.map((k) => (
+              <li key={k.id} className="rounded-md bg-white p-3 ring-1 ring-ink-200">
+                <span className="tabular-nums">{fmtDate(k.createdAt.toISOString())}</span> · {k.actor ?? "bench PC (station key)"} · <q>{k.reason}</q>
+                <span className="block font-mono text-xs text-ink-600">{Object.keys(k.after).map((field) => `${field}: ${JSON.stringify(k.before[field])} → ${JSON.stringify(k.after[field])}`).join("; ")}</span>
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
       {history.length > 1 ? (
         <section className="mt-8">
           <h2 className="mb-2 text-lg font-semibold">Analysis history</h2>
@@ -42,7 +60,7 @@ export default async function CapturePage({ params }: { params: Promise<{ id: st
             {history.map((h) => (
               <li key={h.id} className="flex gap-3">
                 <span className="tabular-nums">{fmtDate(h.createdAt.toISOString())}</span>
-                <span>engine {h.analysisVersion}</span>
+                <span>{h.kind === "rejudge" ? "re-judged" : "analysed"} · engine {h.analysisVersion}{h.profileVersion !== null ? ` · profile v${h.profileVersion}` : ""}{h.stepName ? ` · ${h.stepName}` : ""}</span>
                 <StatusTag status={h.overall} />
                 {h.current ? <strong>current</strong> : null}
               </li>

@@ -5,7 +5,10 @@ import { StatusTag } from "@/components/ui/status-tag";
 import { getUnitCaptureRows } from "@/lib/dal/captures";
 import { getUnitHistoryView } from "@/lib/dal/review";
 import { getUnitView } from "@/lib/dal/units";
+import { PLAN_STATE_WORDS, PlanPanel } from "@/components/units/plan-panel";
+import { getUnitPlanView } from "@/lib/dal/unit-plan";
 import { DispositionPanel } from "./_components/disposition-panel";
+import { RecordChoice } from "./_components/record-choice";
 import { UnitAttachments } from "./_components/unit-attachments";
 import { UnitHistory } from "./_components/unit-history";
 
@@ -15,7 +18,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
   // Another organisation's unit is indistinguishable from a missing one.
   if (!view) notFound();
   const { unit, rating, owner } = view;
-  const [history, captureRows] = await Promise.all([getUnitHistoryView(unit.id), getUnitCaptureRows(unit.id)]);
+  const [history, captureRows, plan] = await Promise.all([getUnitHistoryView(unit.id), getUnitCaptureRows(unit.id), getUnitPlanView(unit.id)]);
   return (
     <>
       <PageHeader
@@ -30,10 +33,17 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
       />
       <dl className="grid grid-cols-2 gap-4 rounded-lg bg-white p-5 text-sm shadow-sm ring-1 ring-ink-200 md:grid-cols-4">
         <div><dt className="text-ink-600">Latest verdict</dt><dd className="mt-1"><StatusTag status={unit.latestOverall} /></dd></div>
+        <div><dt className="text-ink-600">Test plan</dt><dd className="mt-1 font-semibold">{plan ? PLAN_STATE_WORDS[plan.state] : "—"}</dd></div>
         <div><dt className="text-ink-600">Disposition</dt><dd className="mt-1 font-semibold">{unit.disposition}</dd></div>
         <div><dt className="text-ink-600">Registered</dt><dd className="mt-1">{unit.createdAt.toISOString().slice(0, 10)}</dd></div>
         <div><dt className="text-ink-600">Model</dt><dd className="mt-1 font-mono">{rating.modelCode}</dd></div>
       </dl>
+      {plan ? (
+        <PlanPanel
+          state={plan.state} steps={plan.steps} keFit={plan.keFit}
+          renderChoice={plan.canChoose ? (s) => <RecordChoice unitId={unit.id} stepId={s.id} current={s.chosen ? s.record?.id ?? null : null} candidates={plan.steps.find((x) => x.id === s.id)?.candidates ?? []} /> : undefined}
+        />
+      ) : null}
       <section aria-labelledby="captures" className="mt-6 rounded-lg bg-white p-5 shadow-sm ring-1 ring-ink-200">
         <h2 id="captures" className="mb-3 font-semibold">Captures</h2>
         <UnitCapturesTable rows={captureRows} />
