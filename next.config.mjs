@@ -14,15 +14,19 @@ const nextConfig = {
         source: "/:path*",
         headers: [
           { key: "X-Frame-Options", value: "DENY" },
-          { key: "Content-Security-Policy", value: "frame-ancestors 'none'" },
           { key: "X-Content-Type-Options", value: "nosniff" },
           { key: "Referrer-Policy", value: "same-origin" },
           { key: "Permissions-Policy", value: "camera=(), microphone=(), geolocation=()" },
         ],
       },
+      // Not on attachment downloads: their route sends its own, stricter policy (sandbox), which a
+      // second header here would replace.
+      { source: "/((?!api/attachments/).*)", headers: [{ key: "Content-Security-Policy", value: "frame-ancestors 'none'" }] },
     ];
   },
   experimental: {
+    // forbidden(): a page refused to a role answers 403 with the app's menu.
+    authInterrupts: true,
     serverActions: { bodySizeLimit: "2mb" },
   },
 };

@@ -1,4 +1,4 @@
-import { relations, sql } from "drizzle-orm";
+import { sql } from "drizzle-orm";
 import {
   bigint, boolean, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid,
 } from "drizzle-orm/pg-core";
@@ -325,22 +325,21 @@ export const importProfiles = pgTable(
   (t) => [uniqueIndex("import_profiles_station_header_idx").on(t.stationId, t.headerSignature)],
 );
 
-export const organisationsRelations = relations(organisations, ({ many }) => ({ users: many(users) }));
-export const usersRelations = relations(users, ({ one }) => ({
-  organisation: one(organisations, { fields: [users.organisationId], references: [organisations.id] }),
-}));
-export const unitsRelations = relations(units, ({ one, many }) => ({
-  rating: one(ratings, { fields: [units.ratingId], references: [ratings.id] }),
-  owner: one(organisations, { fields: [units.organisationId], references: [organisations.id] }),
-  captures: many(captures),
-}));
-export const capturesRelations = relations(captures, ({ one, many }) => ({
-  unit: one(units, { fields: [captures.unitId], references: [units.id] }),
-  analyses: many(analyses),
-}));
-export const analysesRelations = relations(analyses, ({ one }) => ({
-  capture: one(captures, { fields: [analyses.captureId], references: [captures.id] }),
-}));
+/**
+ * One row per sign-in (its id travels in the session token). Sign-out and "end my other sessions" set
+ * ended_at; every request checks the row and the user's session_version.
+ */
+export const userSessions = pgTable(
+  "user_sessions",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    userId: uuid("user_id").notNull().references(() => users.id),
+    createdAt: createdAt(),
+    expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
+    endedAt: timestamp("ended_at", { withTimezone: true }),
+  },
+  (t) => [index("user_sessions_user_idx").on(t.userId)],
+);
 
 export type Organisation = typeof organisations.$inferSelect;
 export type User = typeof users.$inferSelect;

@@ -62,3 +62,20 @@ export const demoUnits: ReadonlyArray<{ serial: string; modelCode: string }> = [
   ...Array.from({ length: 3 }, (_, i) => ({ serial: `KS8-2611${String(7 + i).padStart(2, "0")}`, modelCode: "KS-8" })),
   ...Array.from({ length: 8 }, (_, i) => ({ serial: `PX120-B${String(1021 + i)}`, modelCode: "PX-120" })),
 ];
+
+/**
+ * A second, smaller lab so that isolation between labs is exercised: its own people and bench, one
+ * client (Kestrum) shared with Harrowgate, its own rating for that client and its own units.
+ */
+export const secondLab = {
+  organisation: { slug: "calderwick-lab", name: "Calderwick Machine Test House", kind: "lab", address: "Dock Road 7, Calderwick CW2 5RP", contactEmail: "bench@calderwick.example", referenceCode: "" },
+  clients: ["kestrum"],
+  users: [
+    { email: "odile.fenner@calderwick.example", name: "Odile Fenner", role: "admin" },
+    { email: "jory.haskett@calderwick.example", name: "Jory Haskett", role: "operator" },
+    { email: "wren.obuya@calderwick.example", name: "Wren Obuya", role: "qa" },
+  ],
+  stations: [{ name: "Cell A · 55 kW dyno", location: "Calderwick, test cell A" }],
+  rating: { org: "kestrum", modelCode: "KG-45T", basedOn: "KG-45T" },
+  units: ["KG45-CW0001", "KG45-CW0002", "KG45-CW0003"],
+} as const;

@@ -15,7 +15,7 @@
  */
 import { createHash } from "node:crypto";
 import { parseArgs } from "node:util";
-import { closeDb } from "@/db/client";
+import { closeDb } from "@/db/queries/connection";
 import { listBenchCaptureTimes } from "@/db/queries/captures";
 import { revokeStationKey } from "@/db/queries/station-keys";
 import { closeAnalysisQueue, getAnalysisQueue } from "@/lib/server/queue";

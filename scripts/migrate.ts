@@ -1,5 +1,5 @@
-import { closeDb } from "@/db/client";
-import { runMigrations } from "@/db/migrate";
+import { closeDb } from "@/db/queries/connection";
+import { runMigrations } from "@/db/queries/migrate";
 
 try {
   await runMigrations();

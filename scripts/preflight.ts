@@ -1,5 +1,5 @@
 // Stops start-up with the name of any service the app cannot reach (and of any bad variable).
-import { closeDb } from "@/db/client";
+import { closeDb } from "@/db/queries/connection";
 import { checkServices } from "@/lib/server/preflight";
 
 try {

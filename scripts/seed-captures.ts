@@ -2,10 +2,10 @@
 // operator would. Idempotent: a capture whose bytes are already stored for its unit is skipped. Needs the resolve
 // hook in scripts/support (server-only modules): tsx --import ./scripts/support/server-only-hook.mjs scripts/seed-captures.ts
 import { createHash } from "node:crypto";
-import { closeDb } from "@/db/client";
+import { closeDb } from "@/db/queries/connection";
 import { findActiveUserByEmail } from "@/db/queries/users";
 import { demoUsers } from "@/db/seed-data";
-import { actorForUser } from "@/lib/dal/actor";
+import { actorForStoredUser } from "@/lib/dal/actor";
 import { completeCaptureUpload, registerCapture } from "@/lib/dal/capture-intake";
 import { closeAnalysisQueue } from "@/lib/server/queue";
 import { demoCaptures } from "./demo/scenario";
@@ -15,9 +15,7 @@ async function main() {
   const operatorEmail = demoUsers.find((u) => u.role === "operator")?.email;
   const row = operatorEmail ? await findActiveUserByEmail(operatorEmail) : undefined;
   if (!row) throw new Error("the demo operator is missing: run scripts/seed.ts first");
-  const { passwordHash: _hash, ...user } = row;
-  void _hash;
-  const actor = actorForUser(user);
+  const actor = await actorForStoredUser(row.id);
   for (const [i, c] of demoCaptures.entries()) {
     const body = renderDemoCsv({ ...c.wave, seed: 1000 + i });
     const bytes = Buffer.from(body, "utf8");

@@ -1,4 +1,4 @@
-import { closeDb } from "@/db/client";
+import { closeDb } from "@/db/queries/connection";
 import { insertDemoScenario } from "@/db/queries/seed";
 import { DEMO_PASSWORD } from "@/db/seed-data";
 import { hashPassword } from "@/lib/auth/password";

@@ -52,7 +52,7 @@ step "end-to-end tests (Chromium)"
 export EMFOLIO_DIST_DIR=.next-test
 node_modules/.bin/next build >.data/log/test-build.log 2>&1 || { tail -50 .data/log/test-build.log; exit 1; }
 ensure_port_free "$E2E_PORT" "the test web app (EMFOLIO_E2E_PORT)"
-node_modules/.bin/next start -H 127.0.0.1 -p "$E2E_PORT" >.data/log/test-web.log 2>&1 &
+node_modules/.bin/tsx scripts/serve.ts --host 127.0.0.1 --port "$E2E_PORT" >.data/log/test-web.log 2>&1 &
 pids+=($!)
 node_modules/.bin/tsx worker/index.ts >.data/log/test-worker.log 2>&1 &
 pids+=($!)

@@ -30,12 +30,12 @@ echo $! >.data/run/worker.pid
 step "demo captures (analysed by the worker in the background)"
 node_modules/.bin/tsx --import ./scripts/support/server-only-hook.mjs scripts/seed-captures.ts
 if $detach; then
-  nohup node_modules/.bin/next start -H 127.0.0.1 -p 3000 >>.data/log/web.log 2>&1 &
+  nohup node_modules/.bin/tsx scripts/serve.ts --host 127.0.0.1 --port 3000 >>.data/log/web.log 2>&1 &
   echo $! >.data/run/web.pid
   wait_for_web http://127.0.0.1:3000
   echo "Emfolio is up on http://127.0.0.1:3000 (worker and web in the background; bash scripts/down.sh stops them)"
 else
   trap 'bash scripts/down.sh --quiet' EXIT
   echo "Emfolio on http://127.0.0.1:3000 — demo accounts in README.md. Ctrl-C stops the web app and the worker."
-  node_modules/.bin/next start -H 127.0.0.1 -p 3000
+  node_modules/.bin/tsx scripts/serve.ts --host 127.0.0.1 --port 3000
 fi

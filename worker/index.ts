@@ -1,6 +1,6 @@
 import path from "node:path";
 import { Worker, type Job } from "bullmq";
-import { closeDb } from "@/db/client";
+import { closeDb } from "@/db/queries/connection";
 import { setCaptureState } from "@/db/queries/captures";
 import { getEnv } from "@/lib/server/env";
 import { ANALYSIS_QUEUE, closeAnalysisQueue, createRedis, type AnalysisJobData } from "@/lib/server/queue";

@@ -7,6 +7,7 @@ import { ANALYSIS_VERSION } from "@/lib/analysis/version";
 import type { CaptureStatusView } from "@/lib/dal/captures";
 import { CaptureStateBadge, ProgressBar } from "./capture-state-badge";
 import { CapturePlots } from "./capture-plots";
+import { CorrectionForm } from "./correction-form";
 import { captureKeys, fetchCaptureStatus, isFinalState } from "./fetchers";
 import { fmtDate } from "./format";
 import { MetricsTable } from "./metrics-table";
@@ -14,7 +15,9 @@ import { ReanalyseButton } from "./reanalyse-button";
 import { CaptureQueryProvider } from "./query-provider";
 import { VerdictsTable, WarningsList } from "./verdicts-table";
 
-function CaptureLiveInner({ initial, canReanalyse }: { initial: CaptureStatusView; canReanalyse: boolean }) {
+type Correction = { channels: string[]; planSteps: { id: string; name: string }[] } | null;
+
+function CaptureLiveInner({ initial, canReanalyse, correction }: { initial: CaptureStatusView; canReanalyse: boolean; correction: Correction }) {
   const { data } = useQuery({
     queryKey: captureKeys.status(initial.id),
     queryFn: () => fetchCaptureStatus(initial.id),
@@ -42,6 +45,7 @@ function CaptureLiveInner({ initial, canReanalyse }: { initial: CaptureStatusVie
         {c.state === "queued" ? <p className="w-full text-xs text-ink-600">{c.stateMessage ?? "Waiting for a worker; this page updates by itself."}</p> : null}
         {c.state === "uploading" ? <p className="w-full text-xs text-ink-600">The upload was not completed. Send the same file again from the upload page to finish it.</p> : null}
       </div>
+      {correction && isFinalState(c.state) ? <CorrectionForm capture={c} channels={correction.channels} planSteps={correction.planSteps} /> : null}
       {analysis && !isFinalState(c.state) ? <Notice kind="info">A new analysis run is on its way; the result below is the current one until it lands.</Notice> : null}
       {analysis && isFinalState(c.state) && analysis.analysisVersion !== ANALYSIS_VERSION ? (
         <Notice kind="info">
@@ -70,10 +74,10 @@ function CaptureLiveInner({ initial, canReanalyse }: { initial: CaptureStatusVie
 }
 
 /** The live part of the capture page: state, then verdicts, metrics and plots once analysed. */
-export function CaptureLive({ initial, canReanalyse }: { initial: CaptureStatusView; canReanalyse: boolean }) {
+export function CaptureLive({ initial, canReanalyse, correction = null }: { initial: CaptureStatusView; canReanalyse: boolean; correction?: Correction }) {
   return (
     <CaptureQueryProvider>
-      <CaptureLiveInner initial={initial} canReanalyse={canReanalyse} />
+      <CaptureLiveInner initial={initial} canReanalyse={canReanalyse} correction={correction} />
     </CaptureQueryProvider>
   );
 }

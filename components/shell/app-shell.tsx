@@ -20,6 +20,7 @@ export function AppShell({ user, children }: { user: SessionUser; children: Reac
         <div className="mt-6 border-t border-ink-800 pt-4 text-xs text-ink-200">
           <p className="font-semibold text-white" data-testid="signed-in-as">{user.name}</p>
           <p>{ROLE_LABELS[user.role]} · {user.organisationName}</p>
+          <p className="mt-1"><Link href="/account" className="text-ink-200">Your sessions</Link></p>
           <div className="mt-3">
             <SignOutButton />
           </div>

@@ -67,21 +67,6 @@ export async function listAnalysisHistory(scope: Scope, captureId: string) {
     .orderBy(desc(analyses.createdAt));
 }
 
-/** Every verdict a unit has had, oldest first: the unit page's history. */
-export async function listUnitVerdictHistory(scope: Scope, unitId: string) {
-  return getDb()
-    .select({
-      analysisId: analyses.id, captureId: captures.id, testKind: captures.testKind, overall: analyses.overall,
-      current: analyses.current, analysisVersion: analyses.analysisVersion, createdAt: analyses.createdAt,
-    })
-    .from(analyses)
-    .innerJoin(captures, eq(captures.id, analyses.captureId))
-    .innerJoin(units, eq(units.id, captures.unitId))
-    .where(and(eq(captures.unitId, unitId), unitScopeWhere(scope)))
-    .orderBy(analyses.createdAt)
-    .limit(500);
-}
-
 /**
  * Stores a re-judgement of an analysed capture (the same figures judged against another profile
  * version or plan step) as its current analysis; the earlier one stays in history. Refreshes the unit's

@@ -1,4 +1,4 @@
-import { and, eq, gt, isNull } from "drizzle-orm";
+import { and, eq, gt, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { passwordTokens, users, type PasswordToken } from "@/db/schema";
 
@@ -16,7 +16,10 @@ export async function findUsablePasswordToken(tokenHash: string) {
   return rows[0];
 }
 
-/** Marks the token used and sets the password in one transaction; false when the token is gone. */
+/**
+ * Marks the token used and sets the password in one transaction; false when the token is gone. Every
+ * other link of the user ends with it, and so does every session (session_version + 1).
+ */
 export async function consumeTokenAndSetPassword(tokenHash: string, passwordHash: string): Promise<boolean> {
   return getDb().transaction(async (tx) => {
     const [token] = await tx
@@ -25,7 +28,8 @@ export async function consumeTokenAndSetPassword(tokenHash: string, passwordHash
       .where(and(eq(passwordTokens.tokenHash, tokenHash), isNull(passwordTokens.usedAt), gt(passwordTokens.expiresAt, new Date())))
       .returning({ userId: passwordTokens.userId });
     if (!token) return false;
-    await tx.update(users).set({ passwordHash }).where(eq(users.id, token.userId));
+    await tx.update(passwordTokens).set({ usedAt: new Date() }).where(and(eq(passwordTokens.userId, token.userId), isNull(passwordTokens.usedAt)));
+    await tx.update(users).set({ passwordHash, sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, token.userId));
     return true;
   });
 }

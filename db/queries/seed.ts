@@ -1,7 +1,7 @@
-import { sql } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { labClients, organisations, planSteps, ratings, stations, toleranceProfiles, units, users } from "@/db/schema";
-import { demoOrganisations, demoRatings, demoStations, demoUnits, demoUsers } from "@/db/seed-data";
+import { demoOrganisations, demoRatings, demoStations, demoUnits, demoUsers, secondLab } from "@/db/seed-data";
 import { profileFromPreset, speedWindow } from "@/lib/analysis";
 
 /** Inserts the demo scenario once; a second run changes nothing. Returns false when it was already there. */
@@ -29,7 +29,7 @@ export async function insertDemoScenario(passwordHash: string): Promise<boolean>
         ratingId: rating.id, position, name: step.name, testKind: step.testKind, ...speedWindow(step.speedRpm, step.windowPercent), requiredRoles: step.roles, checks: step.checks,
       })));
     }
-    const ratingRows = await tx.select().from(ratings);
+    const ratingRows = await tx.select().from(ratings).where(eq(ratings.labId, labId));
     await tx.insert(units).values(
       demoUnits.map((u) => {
         const rating = ratingRows.find((r) => r.modelCode === u.modelCode);
@@ -37,6 +37,30 @@ export async function insertDemoScenario(passwordHash: string): Promise<boolean>
         return { serial: u.serial, ratingId: rating.id, organisationId: rating.organisationId, labId, createdById: manager?.id ?? null };
       }),
     );
+    await insertSecondLab(tx, orgId, passwordHash);
     return true;
   });
+}
+
+type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
+
+/** The second lab of the scenario (db/seed-data.ts, secondLab): people, bench, a shared client, units. */
+async function insertSecondLab(tx: Tx, orgId: (slug: string) => string, passwordHash: string): Promise<void> {
+  const [lab] = await tx.insert(organisations).values({ ...secondLab.organisation }).returning();
+  if (!lab) throw new Error("seed: second lab not stored");
+  await tx.insert(labClients).values(secondLab.clients.map((slug) => ({ labId: lab.id, clientId: orgId(slug) })));
+  const people = await tx.insert(users).values(secondLab.users.map((u) => ({ ...u, organisationId: lab.id, passwordHash }))).returning();
+  const manager = people.find((u) => u.role === "admin");
+  await tx.insert(stations).values(secondLab.stations.map((st) => ({ ...st, labId: lab.id })));
+  const template = demoRatings.find((r) => r.modelCode === secondLab.rating.basedOn);
+  if (!template) throw new Error(`seed: no rating ${secondLab.rating.basedOn} to start the second lab's from`);
+  const [rating] = await tx.insert(ratings).values({
+    organisationId: orgId(secondLab.rating.org), labId: lab.id, modelCode: secondLab.rating.modelCode, title: template.title, nameplate: template.nameplate,
+  }).returning();
+  if (!rating) throw new Error("seed: second lab's rating not stored");
+  await tx.insert(toleranceProfiles).values({ ratingId: rating.id, version: 1, profile: profileFromPreset(template.preset, template.nameplate), reason: "Started from a preset", createdById: manager?.id ?? null });
+  await tx.insert(planSteps).values(template.plan.map((step, position) => ({
+    ratingId: rating.id, position, name: step.name, testKind: step.testKind, ...speedWindow(step.speedRpm, step.windowPercent), requiredRoles: step.roles, checks: step.checks,
+  })));
+  await tx.insert(units).values(secondLab.units.map((serial) => ({ serial, ratingId: rating.id, organisationId: rating.organisationId, labId: lab.id, createdById: manager?.id ?? null })));
 }

@@ -22,3 +22,15 @@ export async function recordFailure(email: string, address: string): Promise<voi
 export async function clearFailures(email: string): Promise<void> {
   await getDb().delete(signInAttempts).where(eq(signInAttempts.email, email));
 }
+
+// Password-reset requests are counted in the same table under a marker that is never an address.
+const RESET_MARKER = "#password-reset";
+
+/** Records a forgot-password request from `address` and returns how many it made in the window, this one included. */
+export async function recordResetRequest(address: string, windowS: number): Promise<number> {
+  await getDb().insert(signInAttempts).values({ email: RESET_MARKER, address });
+  const since = sql`now() - make_interval(secs => ${windowS})`;
+  const [row] = await getDb().select({ n: sql<number>`count(*)`.mapWith(Number) }).from(signInAttempts)
+    .where(and(eq(signInAttempts.email, RESET_MARKER), eq(signInAttempts.address, address), gt(signInAttempts.at, since)));
+  return row?.n ?? 0;
+}

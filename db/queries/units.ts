@@ -1,7 +1,7 @@
 import { and, asc, desc, eq, ilike, isNull, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { captures, labClients, organisations, ratings, units, type Unit } from "@/db/schema";
-import { unitScopeWhere, type Scope } from "./scope";
+import { captures, organisations, ratings, units, type Unit } from "@/db/schema";
+import { linkedClientWhere, unitScopeWhere, type Scope } from "./scope";
 
 export type UnitListFilter = { search?: string; overall?: Unit["latestOverall"] | "untested"; includeRetired?: boolean; limit?: number; offset?: number };
 
@@ -60,29 +60,30 @@ export async function countUnitsByOverall(scope: Scope) {
   return counts;
 }
 
-/** Ratings a lab may register new units against: its own ratings not retired, of active clients linked to it. */
+/** A lab registers units only against its own ratings of clients it is linked to. */
+function registrableRatingWhere(labId: string) {
+  return and(
+    eq(ratings.labId, labId), isNull(ratings.retiredAt), linkedClientWhere(labId, ratings.organisationId),
+    sql`not exists (select 1 from ${organisations} o where o.id = ${ratings.organisationId} and o.deactivated_at is not null)`,
+  );
+}
+
+/** Ratings a lab may register new units against (its own, for its own clients), with the owner's name. */
 export async function listRatingsForRegistration(scope: Scope) {
   if (scope.kind !== "lab") return [];
   return getDb()
     .select({ id: ratings.id, modelCode: ratings.modelCode, title: ratings.title, owner: organisations.name })
     .from(ratings)
     .innerJoin(organisations, eq(organisations.id, ratings.organisationId))
-    .where(registrable(scope.labId))
+    .where(registrableRatingWhere(scope.labId))
     .orderBy(asc(organisations.name), asc(ratings.modelCode));
 }
 
 export async function getRatingForRegistration(scope: Scope, ratingId: string) {
   if (scope.kind !== "lab") return undefined;
-  const rows = await getDb().select({ rating: ratings }).from(ratings)
-    .innerJoin(organisations, eq(organisations.id, ratings.organisationId))
-    .where(and(eq(ratings.id, ratingId), registrable(scope.labId))).limit(1);
-  return rows[0]?.rating;
+  const rows = await getDb().select().from(ratings).where(and(eq(ratings.id, ratingId), registrableRatingWhere(scope.labId))).limit(1);
+  return rows[0];
 }
-
-const registrable = (labId: string) => and(
-  eq(ratings.labId, labId), isNull(ratings.retiredAt), isNull(organisations.deactivatedAt),
-  sql`exists (select 1 from ${labClients} where ${labClients.labId} = ${labId} and ${labClients.clientId} = ${ratings.organisationId})`,
-);
 
 /** Registers a unit in the scope's lab, owned by the rating's manufacturer; returns the existing one on a serial clash. */
 export async function insertUnitOnce(scope: Scope & { kind: "lab" }, values: { serial: string; ratingId: string; organisationId: string }): Promise<Unit> {

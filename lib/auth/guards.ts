@@ -1,14 +1,16 @@
 import "server-only";
 import { getServerSession } from "next-auth";
-import { redirect } from "next/navigation";
+import { cache } from "react";
+import { forbidden, redirect } from "next/navigation";
 import type { Role } from "@/db/schema";
 import { guessService, isConnectionFailure, logDetail, outageSentence } from "@/lib/server/outage";
 import { authOptions, type SessionUser } from "./options";
 
-export async function getSessionUser(): Promise<SessionUser | null> {
+/** The signed-in user, re-checked against the database (lib/auth/options.ts), once per request. */
+export const getSessionUser = cache(async (): Promise<SessionUser | null> => {
   const session = await getServerSession(authOptions);
   return session?.user?.id ? session.user : null;
-}
+});
 
 /** For pages and server actions: no session -> sign-in page. */
 export async function requireUser(): Promise<SessionUser> {
@@ -17,10 +19,10 @@ export async function requireUser(): Promise<SessionUser> {
   return user;
 }
 
-/** For pages and server actions: wrong role -> access-denied page. */
+/** For pages and server actions: wrong role -> 403 (app/(app)/forbidden.tsx, with the app's menu). */
 export async function requireRole(...roles: Role[]): Promise<SessionUser> {
   const user = await requireUser();
-  if (!roles.includes(user.role)) redirect("/access-denied");
+  if (!roles.includes(user.role)) forbidden();
   return user;
 }
 
@@ -31,7 +33,7 @@ export class HttpError extends Error {
   }
 }
 
-/** For route handlers: throws HttpError(401/403); turn it into JSON with `errorResponse`. */
+/** For route handlers: throws HttpError(401/403); `apiRoute` (lib/dal/route-handler.ts) turns it into JSON. */
 export async function requireApiUser(...roles: Role[]): Promise<SessionUser> {
   const user = await getSessionUser();
   if (!user) throw new HttpError(401, "Sign in first.");

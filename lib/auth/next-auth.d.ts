@@ -5,12 +5,14 @@ declare module "next-auth" {
     user: import("./options").SessionUser;
   }
   interface User {
-    id: string; role: Role; organisationId: string; organisationName: string; organisationKind: "lab" | "manufacturer";
+    id: string; role: Role; organisationId: string; organisationName: string; organisationKind: "lab" | "manufacturer"; sessionVersion: number;
   }
 }
 
 declare module "next-auth/jwt" {
   interface JWT {
     uid: string; role: Role; orgId: string; orgName: string; orgKind: "lab" | "manufacturer";
+    /** user_sessions id and the user's session_version at sign-in. */
+    sid?: string; sv?: number;
   }
 }

@@ -12,7 +12,8 @@ const blank = (v: unknown) => (Array.isArray(v) ? v[0] : v === "" ? undefined : 
 const optional = <T extends z.ZodType>(schema: T) => z.preprocess(blank, schema.optional());
 
 export const captureListQuerySchema = z.object({
-  q: optional(z.string().trim().max(64)),
+  // No control characters: PostgreSQL refuses a NUL in text, which answered 500.
+  q: optional(z.string().trim().max(64).regex(/^[^\u0000-\u001f\u007f]*$/, "must not contain control characters")),
   state: optional(z.enum(captureState.enumValues)),
   overall: optional(z.enum(CAPTURE_VERDICT_FILTERS)),
   kind: optional(z.enum(TEST_KINDS)),

@@ -8,7 +8,7 @@ import { requireUser } from "@/lib/auth/guards";
 import { getEnv } from "@/lib/server/env";
 import { presignDownload } from "@/lib/server/storage";
 import { listActivePlanSteps } from "@/db/queries/judgement";
-import { actorForUser, type Actor } from "./actor";
+import { requirePageActor, type Actor } from "./actor";
 import { getCaptureCorrections } from "./capture-corrections";
 
 // One read path for the capture page, the browser's polling handlers and the bench API.
@@ -79,7 +79,7 @@ export async function getCapturePlotView(actor: Actor, captureId: string): Promi
   return { preview: analysis.preview as WaveformPreview, spectrum: analysis.spectrum as SpectrumView };
 }
 
-export async function getCaptureHistory(actor: Actor, captureId: string) {
+async function getCaptureHistory(actor: Actor, captureId: string) {
   return listAnalysisHistory(actor.scope, captureId);
 }
 
@@ -106,13 +106,12 @@ export async function getUnitCapturesBySerial(actor: Actor, serial: string) {
 
 /** The capture page: the status view plus the run history; null for missing and for other organisations' captures. */
 export async function getCapturePageView(captureId: string) {
-  const user = await requireUser();
+  const actor = await requirePageActor();
   if (!/^[0-9a-f-]{36}$/i.test(captureId)) return null;
-  const actor = actorForUser(user);
   const capture = await getCaptureStatusView(actor, captureId);
   if (!capture) return null;
-  const canReanalyse = actor.scope.kind === "lab" && (user.role === "admin" || user.role === "qa");
-  const canCorrect = actor.scope.kind === "lab" && (user.role === "admin" || user.role === "qa" || user.role === "operator");
+  const canReanalyse = actor.scope.kind === "lab" && (actor.role === "admin" || actor.role === "qa");
+  const canCorrect = actor.scope.kind === "lab" && (actor.role === "admin" || actor.role === "qa" || actor.role === "operator");
   const [history, corrections, steps] = await Promise.all([
     getCaptureHistory(actor, captureId),
     canCorrect ? getCaptureCorrections(actor, captureId) : Promise.resolve([]),
@@ -123,15 +122,15 @@ export async function getCapturePageView(captureId: string) {
 
 /** The unit page's captures list; the unit itself was already checked by the caller's scope. */
 export async function getUnitCaptureRows(unitId: string) {
-  const actor = actorForUser(await requireUser());
+  const actor = await requirePageActor();
   const rows = await listCapturesForUnit(actor.scope, unitId);
   return rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() }));
 }
 
 /** Ratings a lab manager may re-run analyses for (the re-analysis form). */
 export async function getReanalysisRatings() {
-  const user = await requireUser();
-  if (user.role !== "admin") return [];
-  const rows = await listRatingsForRegistration(actorForUser(user).scope);
+  const actor = await requirePageActor();
+  if (actor.role !== "admin") return [];
+  const rows = await listRatingsForRegistration(actor.scope);
   return rows.map((r) => ({ id: r.id, label: `${r.modelCode} · ${r.title} (${r.owner})` }));
 }

@@ -5,7 +5,7 @@ import { requireUser } from "@/lib/auth/guards";
 import { scopeFor } from "./scope";
 
 export const unitListQuerySchema = z.object({
-  q: z.string().trim().max(64).optional(),
+  q: z.string().trim().max(64).regex(/^[^\u0000-\u001f\u007f]*$/, "must not contain control characters").optional(),
   overall: z.enum(["pass", "marginal", "inconclusive", "fail", "not-applicable", "untested"]).optional(),
   page: z.coerce.number().int().min(1).max(10_000).default(1),
 });

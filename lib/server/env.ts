@@ -53,6 +53,9 @@ export const envSchema = z.object({
   // captures than this wait for or are in analysis.
   ANALYSIS_BACKLOG_LIMIT: int(2000),
   SIGN_IN_MAX_ATTEMPTS: int(8),
+  // Comma-separated addresses of reverse proxies whose X-Forwarded-For is believed (scripts/serve.ts);
+  // empty: the client address is the socket's.
+  TRUSTED_PROXIES: z.preprocess(blankToUndefined, z.string().regex(/^[0-9a-fA-F:.,\s]+$/, "must be comma-separated IP addresses").optional()),
   SIGN_IN_WINDOW_S: int(900),
   // Attachments (uploadthing). Optional here so the worker and scripts start without them; the
   // attachment code names a missing token when it is used. The names are the ones the SDK reads.
@@ -79,4 +82,22 @@ export function getEnv(): Env {
   }
   cached = Object.freeze(parsed.data);
   return cached;
+}
+
+/**
+ * EMFOLIO_INGEST_TRACE=1 prints the parallel reader's timeline to stderr (for the benchmark). Read on
+ * its own so the command-line analyser, which has no database or store settings, can use it too.
+ */
+export function ingestTraceEnabled(): boolean {
+  return Boolean(blankToUndefined(process.env.EMFOLIO_INGEST_TRACE));
+}
+
+/** This process's environment plus `overrides`, for a child process (workers the tests and benchmarks start). */
+export function childProcessEnv(overrides: Record<string, string> = {}): NodeJS.ProcessEnv {
+  return { ...process.env, ...overrides };
+}
+
+/** Only PATH plus `overrides`: a child that must not inherit this process's settings (the bench-PC uploader). */
+export function bareChildEnv(overrides: Record<string, string> = {}): NodeJS.ProcessEnv {
+  return { PATH: process.env.PATH ?? "", NODE_ENV: process.env.NODE_ENV, ...overrides };
 }

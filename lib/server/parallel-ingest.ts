@@ -10,6 +10,7 @@ import { open, type FileHandle } from "node:fs/promises";
 import { createRequire } from "node:module";
 import { fileURLToPath } from "node:url";
 import { Worker } from "node:worker_threads";
+import { ingestTraceEnabled } from "./env";
 import {
   BODY_HEAD_BYTES,
   BodyRangeFallback,
@@ -108,7 +109,7 @@ function startRangeWorker(): RangeWorker {
 
 /** EMFOLIO_INGEST_TRACE=1 prints the timeline to stderr (for the benchmark). */
 function trace(message: string): void {
-  if (process.env.EMFOLIO_INGEST_TRACE) console.error(`[ingest ${performance.now().toFixed(0)} ms] ${message}`);
+  if (ingestTraceEnabled()) console.error(`[ingest ${performance.now().toFixed(0)} ms] ${message}`);
 }
 
 async function readAt(handle: FileHandle, buffer: Uint8Array, length: number, position: number): Promise<number> {

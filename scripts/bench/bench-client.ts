@@ -4,6 +4,7 @@ import { listStations } from "@/db/queries/stations";
 import { findActiveUserByEmail } from "@/db/queries/users";
 import { demoUsers } from "@/db/seed-data";
 import { generateStationKey } from "@/lib/server/hash";
+import { childProcessEnv } from "@/lib/server/env";
 
 // What the benchmark scripts share: a station key of the demo lab, bench-API calls, and worker
 // processes started on the current env.
@@ -30,7 +31,7 @@ const live = new Set<ChildProcess>();
 
 /** `node --import tsx worker/index.ts` with one job at a time; resolves once it says it is ready. */
 export function startBenchWorker(): Promise<ChildProcess> {
-  const proc = spawn(process.execPath, ["--import", "tsx", "worker/index.ts"], { env: { ...process.env, WORKER_CONCURRENCY: "1" }, stdio: ["ignore", "pipe", "inherit"] });
+  const proc = spawn(process.execPath, ["--import", "tsx", "worker/index.ts"], { env: childProcessEnv({ WORKER_CONCURRENCY: "1" }), stdio: ["ignore", "pipe", "inherit"] });
   live.add(proc);
   proc.once("exit", () => live.delete(proc));
   return new Promise((resolve, reject) => {

@@ -13,7 +13,7 @@ import { createHash } from "node:crypto";
 import { createReadStream, mkdirSync, openSync, readdirSync, readFileSync, readSync, closeSync } from "node:fs";
 import path from "node:path";
 import { parseArgs } from "node:util";
-import { closeDb } from "@/db/client";
+import { closeDb } from "@/db/queries/connection";
 import { listBenchCaptureTimes } from "@/db/queries/captures";
 import { revokeStationKey } from "@/db/queries/station-keys";
 import { closeAnalysisQueue, getAnalysisQueue } from "@/lib/server/queue";

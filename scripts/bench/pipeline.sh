@@ -21,7 +21,7 @@ export EMFOLIO_DIST_DIR=.next-test
 echo "building the app (log: .data/log/bench-build.log)"
 node_modules/.bin/next build >.data/log/bench-build.log 2>&1 || { tail -20 .data/log/bench-build.log; exit 1; }
 ensure_port_free "$PORT" "the benchmark's web app (EMFOLIO_BENCH_PORT)"
-node_modules/.bin/next start -H 127.0.0.1 -p "$PORT" >.data/log/bench-web.log 2>&1 &
+node_modules/.bin/tsx scripts/serve.ts --host 127.0.0.1 --port "$PORT" >.data/log/bench-web.log 2>&1 &
 web=$!
 trap 'kill -TERM "$web" 2>/dev/null || true; wait "$web" 2>/dev/null || true; stop_services_started_here' EXIT
 wait_for_web "http://127.0.0.1:$PORT"

@@ -8,11 +8,12 @@
  */
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { createHash } from "node:crypto";
-import { closeDb } from "@/db/client";
+import { closeDb } from "@/db/queries/connection";
 import { listBenchCaptureTimes } from "@/db/queries/captures";
 import { POST as registerRoute } from "@/app/api/v1/captures/route";
 import { POST as completeRoute } from "@/app/api/v1/captures/[id]/complete/route";
 import { closeAnalysisQueue } from "@/lib/server/queue";
+import { childProcessEnv } from "@/lib/server/env";
 import { makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
 import { createBenchKey } from "../bench/bench-client";
 import { printTable } from "../bench/table";
@@ -35,7 +36,7 @@ const workers: ChildProcess[] = [];
 function startWorker(): ChildProcess {
   // Its own process group, so SIGKILL takes the worker and its job processes at once (a host dying).
   const proc = spawn(process.execPath, ["--import", "tsx", "worker/index.ts"], {
-    env: { ...process.env, WORKER_LOCK_MS: "5000", WORKER_SWEEP_INTERVAL_S: "5" }, stdio: ["ignore", "ignore", "ignore"], detached: true,
+    env: childProcessEnv({ WORKER_LOCK_MS: "5000", WORKER_SWEEP_INTERVAL_S: "5" }), stdio: ["ignore", "ignore", "ignore"], detached: true,
   });
   workers.push(proc);
   return proc;

@@ -1,6 +1,6 @@
 import { createHash } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { closeDb } from "@/db/client";
+import { closeDb } from "@/db/queries/connection";
 import { listUnitEvents } from "@/db/queries/unit-events";
 import { getUnitBySerial } from "@/db/queries/units";
 import type { SessionUser } from "@/lib/auth/options";

@@ -1,6 +1,6 @@
 import { randomUUID } from "node:crypto";
 import { afterAll, describe, expect, it } from "vitest";
-import { closeDb } from "@/db/client";
+import { closeDb } from "@/db/queries/connection";
 import { clearFailures } from "@/db/queries/sign-in-attempts";
 import { DEMO_PASSWORD } from "@/db/seed-data";
 import { authenticate } from "@/lib/auth/authenticate";
@@ -26,15 +26,14 @@ describe("authenticate(email, password, address)", () => {
     expect(nobody).toEqual(wrong);
   });
 
-  it("locks an account after SIGN_IN_MAX_ATTEMPTS failures, even with the right password", async () => {
+  it("authenticate never locks an account: after SIGN_IN_MAX_ATTEMPTS failures from many addresses the right password still signs in", async () => {
     const email = "sela.ambrose@poldane.example";
     const limit = getEnv().SIGN_IN_MAX_ATTEMPTS;
     for (let i = 0; i < limit; i++) await authenticate(email, "wrong", `a-${i}-${randomUUID()}`);
-    const locked = await authenticate(email, DEMO_PASSWORD, `a-${randomUUID()}`);
-    expect(locked.ok).toBe(false);
-    if (!locked.ok) expect(locked.message).toMatch(/Too many failed sign-in attempts/);
+    const owner = await authenticate(email, DEMO_PASSWORD, `a-${randomUUID()}`);
+    expect(owner.ok).toBe(true);
     await clearFailures(email);
-  });
+  }, 30_000);
 
   it("limits one client address across accounts", async () => {
     const address = `shared-${randomUUID()}`;

@@ -12,7 +12,7 @@ import { closeConnections, demoLabStation, registerViaApi, sha256, uploadViaApi 
 
 // A small backlog limit for this file only (each test file has its own parsed environment).
 const LIMIT = vi.hoisted(() => {
-  process.env.ANALYSIS_BACKLOG_LIMIT = "3";
+  vi.stubEnv("ANALYSIS_BACKLOG_LIMIT", "3");
   return 3;
 });
 

@@ -1,3 +1,4 @@
+import { bareChildEnv } from "@/lib/server/env";
 import { spawn } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
 import http from "node:http";
@@ -39,7 +40,7 @@ async function toResponse(req: http.IncomingMessage): Promise<Response> {
 function dropFolder(folder: string, ...args: string[]): Promise<{ status: number | null; output: string }> {
   return new Promise((resolve) => {
     const child = spawn(process.execPath, ["scripts/drop-folder.mjs", "--folder", folder, "--server", base, "--settle", "0.3", "--poll", "0.2", "--once", ...args], {
-      env: { PATH: process.env.PATH ?? "", NODE_ENV: "test", EMFOLIO_STATION_KEY: token },
+      env: bareChildEnv({ EMFOLIO_STATION_KEY: token }),
       stdio: ["ignore", "pipe", "pipe"],
     });
     let output = "";

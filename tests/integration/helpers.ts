@@ -8,5 +8,5 @@ export async function seededOrgs() {
     if (!o) throw new Error(`the test database lacks the seeded organisation ${slug}: run the test command, which seeds it`);
     return o;
   };
-  return { lab: bySlug("harrowgate-lab"), kestrum: bySlug("kestrum"), poldane: bySlug("poldane") };
+  return { lab: bySlug("harrowgate-lab"), secondLab: bySlug("calderwick-lab"), kestrum: bySlug("kestrum"), poldane: bySlug("poldane") };
 }

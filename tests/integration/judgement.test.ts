@@ -6,7 +6,7 @@ import { findActiveUserByEmail } from "@/db/queries/users";
 import { planSteps, ratings, toleranceProfiles, units } from "@/db/schema";
 import { demoUsers } from "@/db/seed-data";
 import { profileFromPreset, speedWindow, type AnalysisReport, type Rating } from "@/lib/analysis";
-import { actorForUser } from "@/lib/dal/actor";
+import { actorForStoredUser } from "@/lib/dal/actor";
 import { correctCapture } from "@/lib/dal/capture-corrections";
 import { requestRejudge } from "@/lib/dal/rejudge";
 import { setStepRecord } from "@/lib/dal/unit-plan";
@@ -28,7 +28,7 @@ async function actorFor(role: "qa" | "operator") {
   const row = await findActiveUserByEmail(demoUsers.find((u) => u.role === role)!.email);
   const { passwordHash: _h, ...user } = row!;
   void _h;
-  return actorForUser(user);
+  return (await actorForStoredUser(user.id));
 }
 
 async function newUnit(serial: string) {

@@ -4,11 +4,11 @@ import { findStationKeyByPrefix, revokeStationKey } from "@/db/queries/station-k
 import { GET as getCaptureRoute } from "@/app/api/v1/captures/[id]/route";
 import { GET as listRoute, POST as registerRoute } from "@/app/api/v1/captures/route";
 import { GET as getUnitRoute } from "@/app/api/v1/units/[serial]/route";
-import { actorForUser } from "@/lib/dal/actor";
+import { actorForStoredUser } from "@/lib/dal/actor";
 import { getCaptureStatusView } from "@/lib/dal/captures";
 import { captureObjectKey, headObject } from "@/lib/server/storage";
 import { makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
-import { closeConnections, createOtherLab, createStationToken, demoLabStation, registerViaApi, unitId, uploadViaApi } from "./pipeline-support";
+import { closeConnections, createOtherLab, demoActor, createStationToken, demoLabStation, registerViaApi, unitId, uploadViaApi } from "./pipeline-support";
 
 let labId: string;
 let token: string;
@@ -71,8 +71,8 @@ describe("authorization across organisations", () => {
   it("an operator of another lab cannot read a capture (null → 404), nor can that lab's station key", async () => {
     const { id } = await uploadViaApi(token, makeThreePhaseCsv({ variant: run + 2 }), { unitSerial: "KG45-260309" });
     const other = await createOtherLab(`t${run}`);
-    expect(await getCaptureStatusView(actorForUser(other.sessionUser), id)).toBeNull();
-    const own = await getCaptureStatusView(actorForUser({ ...other.sessionUser, organisationId: labId }), id);
+    expect(await getCaptureStatusView(await actorForStoredUser(other.sessionUser.id), id)).toBeNull();
+    const own = await getCaptureStatusView(await demoActor("operator"), id);
     expect(own?.id).toBe(id);
     const otherKey = (await createStationToken(other.org.id)).token;
     const res = await getCaptureRoute(get(otherKey), { params: Promise.resolve({ id }) });

@@ -8,7 +8,11 @@ import { listStations } from "@/db/queries/stations";
 import { getUnitBySerial } from "@/db/queries/units";
 import { organisations, stations, users, type CaptureState } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/options";
+import { actorForStoredUser, type Actor } from "@/lib/dal/actor";
+import { findActiveUserByEmail } from "@/db/queries/users";
+import { demoUsers } from "@/db/seed-data";
 import { generateStationKey } from "@/lib/server/hash";
+import { childProcessEnv } from "@/lib/server/env";
 import { closeAnalysisQueue } from "@/lib/server/queue";
 import { POST as registerRoute } from "@/app/api/v1/captures/route";
 import { POST as completeRoute } from "@/app/api/v1/captures/[id]/complete/route";
@@ -103,7 +107,7 @@ export type WorkerProcess = { proc: ChildProcess; output: () => string; stop: ()
 /** Starts `node --import tsx worker/index.ts` on the test env and waits until it says it is ready. */
 export async function startWorker(extraEnv: Record<string, string> = {}): Promise<WorkerProcess> {
   const proc = spawn(process.execPath, ["--import", "tsx", "worker/index.ts"], {
-    env: { ...process.env, WORKER_LOCK_MS: "3000", WORKER_SWEEP_INTERVAL_S: "2", ...extraEnv },
+    env: childProcessEnv({ WORKER_LOCK_MS: "3000", WORKER_SWEEP_INTERVAL_S: "2", ...extraEnv }),
     stdio: ["ignore", "pipe", "pipe"],
   });
   let out = "";
@@ -142,4 +146,12 @@ export async function createOtherLab(tag: string) {
     id: user.id, name: user.name, email: user.email, role: "operator", organisationId: org.id, organisationName: org.name, organisationKind: "lab",
   };
   return { org, sessionUser };
+}
+
+/** The actor of a seeded demo account of the given role (looked up in the database, like a session). */
+export async function demoActor(role: "admin" | "operator" | "qa" | "manufacturer"): Promise<Actor> {
+  const email = demoUsers.find((u) => u.role === role)?.email;
+  const row = email ? await findActiveUserByEmail(email) : undefined;
+  if (!row) throw new Error(`no seeded ${role}: run the seed first`);
+  return actorForStoredUser(row.id);
 }

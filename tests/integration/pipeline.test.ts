@@ -2,10 +2,9 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getCurrentAnalysis, listAnalysisHistory } from "@/db/queries/analyses";
 import { getUnit } from "@/db/queries/units";
 import { HttpError } from "@/lib/auth/guards";
-import { actorForUser } from "@/lib/dal/actor";
 import { requestReanalysis } from "@/lib/dal/reanalysis";
 import { makeBrokenCsv, makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
-import { closeConnections, completeViaApi, createOtherLab, demoLabStation, registerViaApi, startWorker, type WorkerProcess, unitId, uploadViaApi, waitForState } from "./pipeline-support";
+import { closeConnections, completeViaApi, demoActor, demoLabStation, registerViaApi, startWorker, type WorkerProcess, unitId, uploadViaApi, waitForState } from "./pipeline-support";
 
 let worker: WorkerProcess;
 let labId: string;
@@ -81,8 +80,7 @@ describe("immutable raw objects", () => {
     expect((await completeViaApi(token, id)).status).toBe(202);
     expect((await waitForState(labId, id, ["analysed", "rejected", "failed"])).state).toBe("analysed");
     await fetch(upload.url, { method: "PUT", headers: upload.headers, body: csv.replace("V_AN (V)", "V_XX (V)") });
-    const other = await createOtherLab(`i${run}`);
-    await requestReanalysis(actorForUser({ ...other.sessionUser, role: "admin", organisationId: labId }), { captureId: id });
+    await requestReanalysis(await demoActor("admin"), { captureId: id });
     const capture = await waitForState(labId, id, ["rejected", "failed"], 30_000);
     expect(capture.state).toBe("rejected");
     // A real S3 answers the worker's If-Match on the recorded ETag with 412; the local fake ignores
@@ -95,9 +93,8 @@ describe("requestReanalysis(actor, target)", () => {
   it("re-running an analysed capture keeps the earlier result in history and makes the new one current", async () => {
     const { id } = await uploadViaApi(token, makeThreePhaseCsv({ variant: (run % 1000) + 5000 }), { unitSerial: "KG45-260301" });
     await waitForState(labId, id, ["analysed"]);
-    const other = await createOtherLab(`r${run}`);
-    const admin = actorForUser({ ...other.sessionUser, role: "admin", organisationId: labId });
-    const operator = actorForUser({ ...other.sessionUser, organisationId: labId });
+    const admin = await demoActor("admin");
+    const operator = await demoActor("operator");
     await expect(requestReanalysis(operator, { captureId: id })).rejects.toBeInstanceOf(HttpError);
     expect(await requestReanalysis(admin, { captureId: id })).toEqual({ queued: 1 });
     await waitForState(labId, id, ["analysed"]);

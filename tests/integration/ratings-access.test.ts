@@ -11,7 +11,7 @@ import RatingsPage from "@/app/(app)/ratings/page";
 import NewRatingPage from "@/app/(app)/ratings/new/page";
 import RatingPage from "@/app/(app)/ratings/[id]/page";
 import { createRatingAction, rejudgeRatingAction, saveProfileAction, savePlanStepAction, setRatingRetiredAction, updateRatingAction } from "@/app/(app)/ratings/actions";
-import { actorForUser } from "@/lib/dal/actor";
+import { actorForStoredUser } from "@/lib/dal/actor";
 import { createClient } from "@/lib/dal/clients";
 import { createRating, listRatingsView } from "@/lib/dal/ratings";
 import { closeConnections, createOtherLab, createStationToken } from "./pipeline-support";
@@ -47,7 +47,7 @@ beforeAll(async () => {
   for (const role of ["admin", "operator", "qa", "manufacturer"] as const) people[role] = await sessionUserOf(SEEDED[role]);
   as("admin");
   clientId = (await createClient({ name: `Access client ${run}` })).id;
-  ratingId = (await createRating(actorForUser(people.admin), { clientId, modelCode: `ACC-${run}`, title: "Access test", nameplate: alternator, presetId: "lab-own" })).id;
+  ratingId = (await createRating((await actorForStoredUser(people.admin.id)), { clientId, modelCode: `ACC-${run}`, title: "Access test", nameplate: alternator, presetId: "lab-own" })).id;
   token = (await createStationToken(people.admin.organisationId)).token;
 });
 afterAll(closeConnections);
@@ -96,7 +96,7 @@ describe("server actions called directly by a forbidden role", () => {
       for (const call of calls) expect(await outcome(call), who).toBe("/access-denied");
     }
     as("admin");
-    const view = await listRatingsView(actorForUser(people.admin), { retired: "all" });
+    const view = await listRatingsView((await actorForStoredUser(people.admin.id)), { retired: "all" });
     expect(view.ratings.find((r) => r.id === ratingId)).toMatchObject({ title: "Access test", retiredAt: null });
   });
 

@@ -4,7 +4,7 @@ import { getDb } from "@/db/client";
 import { analyses, captures } from "@/db/schema";
 import { getRatingForRegistration } from "@/db/queries/units";
 import { profileFromPreset, type ToleranceProfile } from "@/lib/analysis";
-import { actorForUser, type Actor } from "@/lib/dal/actor";
+import { actorForStoredUser, type Actor } from "@/lib/dal/actor";
 import { createClient } from "@/lib/dal/clients";
 import { changePlanStep, getPlanView, replacePlan } from "@/lib/dal/rating-plans";
 import { getProfileHistory, rejudgeRating, saveProfileVersion } from "@/lib/dal/rating-profiles";
@@ -40,7 +40,7 @@ beforeAll(async () => {
   const user = await sessionUserOf(SEEDED.admin);
   session.current = user;
   labId = user.organisationId;
-  admin = actorForUser(user);
+  admin = (await actorForStoredUser(user.id));
   clientId = (await createClient({ name: `Versioning client ${run}`, contactEmail: "qa@client.example", referenceCode: `VC-${run}` })).id;
 });
 afterAll(closeConnections);

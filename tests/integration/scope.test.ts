@@ -1,18 +1,24 @@
 import { afterAll, describe, expect, it } from "vitest";
-import { closeDb } from "@/db/client";
+import { closeDb } from "@/db/queries/connection";
 import { countUnitsByOverall, getUnit, getUnitBySerial, listUnits } from "@/db/queries/units";
-import { demoUnits } from "@/db/seed-data";
+import { demoUnits, secondLab as secondLabSeed } from "@/db/seed-data";
+
+const secondLab_units: readonly string[] = secondLabSeed.units;
 import { seededOrgs } from "./helpers";
 
 afterAll(closeDb);
 
 describe("unit queries under a Scope", () => {
-  it("listUnits gives the lab every unit it tests and each client only its own", async () => {
-    const { lab, kestrum, poldane } = await seededOrgs();
-    const all = await listUnits({ kind: "lab", labId: lab.id }, { limit: 500 });
+  it("listUnits gives the lab every unit it tests and each client only its own, from the labs it is linked to", async () => {
+    const { lab, secondLab, kestrum, poldane } = await seededOrgs();
+    const first = await listUnits({ kind: "lab", labId: lab.id }, { limit: 500 });
+    const second = await listUnits({ kind: "lab", labId: secondLab.id }, { limit: 500 });
+    const all = [...first, ...second];
+    expect(first.length).toBeGreaterThanOrEqual(demoUnits.length);
+    expect(second.map((u) => u.serial)).toEqual(expect.arrayContaining([...secondLab_units]));
+    expect(first.some((u) => secondLab_units.includes(u.serial))).toBe(false);
     const k = await listUnits({ kind: "manufacturer", organisationId: kestrum.id }, { limit: 500 });
     const p = await listUnits({ kind: "manufacturer", organisationId: poldane.id }, { limit: 500 });
-    expect(all.length).toBeGreaterThanOrEqual(demoUnits.length);
     expect(k.every((u) => u.owner === "Kestrum Generators")).toBe(true);
     expect(p.every((u) => u.owner === "Poldane Motion Works")).toBe(true);
     // Other tests add clients of their own to the lab; the two demo clients' units are all the lab's units of theirs.

@@ -3,8 +3,7 @@ import { RefreshWhileBusy } from "@/components/captures/refresh-while-busy";
 import { ReanalyseRatingForm } from "@/components/captures/reanalyse-rating-form";
 import { PageHeader } from "@/components/shell/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
-import { requireUser } from "@/lib/auth/guards";
-import { actorForUser } from "@/lib/dal/actor";
+import { requirePageActor } from "@/lib/dal/actor";
 import { captureListQuerySchema, type CaptureListQuery } from "@/lib/captures/list-query";
 import { getCaptureListView } from "@/lib/dal/capture-list";
 import { getReanalysisRatings } from "@/lib/dal/captures";
@@ -14,11 +13,11 @@ import { CaptureListTable, type ListLink } from "./_components/capture-list-tabl
 export const metadata = { title: "Captures" };
 
 export default async function CapturesPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const user = await requireUser();
+  const actor = await requirePageActor();
   const parsed = captureListQuerySchema.safeParse(await searchParams);
   const query: CaptureListQuery = parsed.success ? parsed.data : captureListQuerySchema.parse({});
-  const view = await getCaptureListView(actorForUser(user), query);
-  const ratings = user.role === "admin" ? await getReanalysisRatings() : [];
+  const view = await getCaptureListView(actor, query);
+  const ratings = actor.role === "admin" ? await getReanalysisRatings() : [];
   const link: ListLink = (overrides) => {
     const merged: Record<string, string | number | undefined> = { ...query, ...overrides };
     const p = new URLSearchParams();

@@ -4,7 +4,7 @@ import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { z } from "zod";
 import { requireRole } from "@/lib/auth/guards";
-import { actorForUser } from "@/lib/dal/actor";
+import { requireRoleActor } from "@/lib/dal/actor";
 import { changePlanStep } from "@/lib/dal/rating-plans";
 import { rejudgeRating, saveProfileVersion } from "@/lib/dal/rating-profiles";
 import { createRating, setRatingRetired, updateRating } from "@/lib/dal/ratings";
@@ -14,7 +14,7 @@ import { unflattenForm } from "@/lib/ratings/form-data";
 // Every action: guard (lab manager or quality engineer), then the DAL (which checks again and scopes to
 // the lab), then revalidate or redirect outside any try.
 
-const editor = async () => actorForUser(await requireRole("admin", "qa"));
+const editor = () => requireRoleActor("admin", "qa");
 const ratingIdSchema = z.object({ ratingId: z.uuid("No such rating") });
 const stepRefSchema = ratingIdSchema.extend({ stepId: z.uuid("No such step") });
 const ids = (form: FormData) => ratingIdSchema.safeParse(Object.fromEntries(form));

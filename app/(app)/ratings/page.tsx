@@ -3,8 +3,8 @@ import { PageHeader } from "@/components/shell/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
 import { Notice } from "@/components/ui/notice";
 import { MACHINE_KIND_LABELS, MACHINE_KINDS } from "@/lib/analysis";
-import { HttpError, requireRole } from "@/lib/auth/guards";
-import { actorForUser } from "@/lib/dal/actor";
+import { HttpError } from "@/lib/auth/guards";
+import { requireRoleActor } from "@/lib/dal/actor";
 import { listRatingsView } from "@/lib/dal/ratings";
 
 export const metadata = { title: "Ratings" };
@@ -12,11 +12,11 @@ export const metadata = { title: "Ratings" };
 const SELECT = "mt-1 block rounded-md border border-ink-200 bg-white px-3 py-2 text-sm";
 
 export default async function RatingsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const user = await requireRole("admin", "operator", "qa");
+  const actor = await requireRoleActor("admin", "operator", "qa");
   const raw = Object.fromEntries(Object.entries(await searchParams).map(([k, v]) => [k, Array.isArray(v) ? v[0] : v]));
   let view;
   try {
-    view = await listRatingsView(actorForUser(user), raw);
+    view = await listRatingsView(actor, raw);
   } catch (err) {
     if (!(err instanceof HttpError)) throw err;
     return <Notice kind="problem" title="That filter cannot be read">{err.message}</Notice>;

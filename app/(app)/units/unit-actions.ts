@@ -2,8 +2,8 @@
 
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
-import { HttpError, requireRole } from "@/lib/auth/guards";
-import { actorForUser } from "@/lib/dal/actor";
+import { HttpError } from "@/lib/auth/guards";
+import { requireRoleActor } from "@/lib/dal/actor";
 import { createUnit, editUnit, editUnitSchema, findSimilarSerials, newUnitSchema, retireUnit, retireUnitSchema } from "@/lib/dal/unit-admin";
 
 export type UnitFormState = { ok: boolean; message: string; similar?: string[] };
@@ -12,8 +12,7 @@ const issues = (e: { issues: { path: PropertyKey[]; message: string }[] }) => e.
 
 /** Registers a unit; a serial close to one on file must be confirmed. */
 export async function createUnitAction(_prev: UnitFormState, form: FormData): Promise<UnitFormState> {
-  const user = await requireRole("admin", "operator");
-  const actor = actorForUser(user);
+  const actor = await requireRoleActor("admin", "operator");
   const raw = { serial: form.get("serial"), ratingId: form.get("ratingId"), confirmNew: form.get("confirmNew") === "on" };
   const parsed = newUnitSchema.safeParse(raw);
   if (!parsed.success) {
@@ -32,12 +31,12 @@ export async function createUnitAction(_prev: UnitFormState, form: FormData): Pr
 }
 
 export async function editUnitAction(_prev: UnitFormState, form: FormData): Promise<UnitFormState> {
-  const user = await requireRole("admin", "qa");
+  const actor = await requireRoleActor("admin", "qa");
   const unitId = String(form.get("unitId") ?? "");
   const parsed = editUnitSchema.safeParse({ serial: form.get("serial") || undefined, ratingId: form.get("ratingId") || undefined, reason: form.get("reason") });
   if (!parsed.success) return { ok: false, message: issues(parsed.error) };
   try {
-    await editUnit(actorForUser(user), unitId, parsed.data);
+    await editUnit(actor, unitId, parsed.data);
   } catch (err) {
     if (err instanceof HttpError) return { ok: false, message: err.message };
     throw err;
@@ -47,12 +46,12 @@ export async function editUnitAction(_prev: UnitFormState, form: FormData): Prom
 }
 
 export async function retireUnitAction(_prev: UnitFormState, form: FormData): Promise<UnitFormState> {
-  const user = await requireRole("admin", "qa");
+  const actor = await requireRoleActor("admin", "qa");
   const unitId = String(form.get("unitId") ?? "");
   const parsed = retireUnitSchema.safeParse({ retired: form.get("retired") === "true", reason: form.get("reason") });
   if (!parsed.success) return { ok: false, message: issues(parsed.error) };
   try {
-    await retireUnit(actorForUser(user), unitId, parsed.data);
+    await retireUnit(actor, unitId, parsed.data);
   } catch (err) {
     if (err instanceof HttpError) return { ok: false, message: err.message };
     throw err;

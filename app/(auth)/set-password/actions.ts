@@ -2,9 +2,7 @@
 
 import { redirect } from "next/navigation";
 import { z } from "zod";
-import { consumeTokenAndSetPassword } from "@/db/queries/password-tokens";
-import { hashPassword } from "@/lib/auth/password";
-import { hashToken } from "@/lib/auth/password-links";
+import { setPasswordWithLink } from "@/lib/dal/password-link";
 
 const setPasswordSchema = z
   .object({
@@ -17,7 +15,7 @@ const setPasswordSchema = z
 export async function setPassword(_prev: string, form: FormData): Promise<string> {
   const parsed = setPasswordSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return parsed.error.issues[0]?.message ?? "Check the form.";
-  const done = await consumeTokenAndSetPassword(hashToken(parsed.data.token), await hashPassword(parsed.data.password));
+  const done = await setPasswordWithLink(parsed.data.token, parsed.data.password);
   if (!done) return "This link has expired or was already used. Ask for a new one.";
   redirect("/sign-in?password=set");
 }

@@ -4,13 +4,16 @@ import { redirect } from "next/navigation";
 import { Notice } from "@/components/ui/notice";
 import { SafetyCaution } from "@/components/shell/safety-caution";
 import { getSessionUser } from "@/lib/auth/guards";
+import { safeRedirectPath } from "@/lib/auth/redirect-target";
+import { getEnv } from "@/lib/server/env";
 import { SignInForm } from "./_components/sign-in-form";
 
 export const metadata: Metadata = { title: "Sign in" };
 
-export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string; password?: string }> }) {
-  const { next, password } = await searchParams;
-  const target = next && next.startsWith("/") && !next.startsWith("//") ? next : "/";
+export default async function SignInPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+  const { next, callbackUrl, password } = await searchParams;
+  // Parsed against the app's own origin: anything else (another host, "/\host", "javascript:") goes home.
+  const target = safeRedirectPath(next ?? callbackUrl, getEnv().NEXTAUTH_URL);
   if (await getSessionUser()) redirect(target);
   return (
     <main className="mx-auto flex min-h-screen max-w-md flex-col justify-center gap-6 px-4 py-10">

@@ -1,7 +1,7 @@
 import { NextRequest } from "next/server";
 import { createRouteHandler } from "uploadthing/next";
-import { errorResponse } from "@/lib/auth/guards";
 import { readBounded } from "@/lib/dal/request";
+import { apiRoute } from "@/lib/dal/route-handler";
 import { uploadRouteConfig } from "@/lib/server/uploadthing";
 import { uploadRouter } from "./core";
 
@@ -15,14 +15,9 @@ const MAX_BODY_BYTES = 64 * 1024;
 
 export const GET = (request: NextRequest) => get().GET(request);
 
-export async function POST(request: NextRequest) {
-  let body: string;
-  try {
-    body = await readBounded(request, MAX_BODY_BYTES);
-  } catch (err) {
-    return errorResponse(err);
-  }
+export const POST = apiRoute(async (request: NextRequest) => {
+  const body = await readBounded(request, MAX_BODY_BYTES);
   const headers = new Headers(request.headers);
   headers.delete("content-length");
   return get().POST(new NextRequest(request.url, { method: "POST", headers, body }));
-}
+});

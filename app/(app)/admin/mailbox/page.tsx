@@ -1,7 +1,8 @@
 import { PageHeader } from "@/components/shell/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
 import { requireRole } from "@/lib/auth/guards";
-import { listOutbox, outboxEnabled } from "@/lib/server/outbox";
+import { getOutboxView } from "@/lib/dal/outbox";
+import { outboxEnabled } from "@/lib/server/outbox";
 
 export const metadata = { title: "Outbox" };
 
@@ -10,7 +11,7 @@ export default async function MailboxPage() {
   if (!outboxEnabled()) {
     return <EmptyState title="No local outbox">MAIL_DIR is not set: mail goes to the configured SMTP server only.</EmptyState>;
   }
-  const mails = await listOutbox();
+  const mails = await getOutboxView();
   return (
     <>
       <PageHeader title="Outbox" lead="Messages the app sent, as the local mail catcher stored them. For development and the demo only." />

@@ -1,7 +1,6 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { CaptureLive } from "@/components/captures/capture-live";
-import { CorrectionForm } from "@/components/captures/correction-form";
 import { fmtDate } from "@/components/captures/format";
 import { PageHeader } from "@/components/shell/page-header";
 import { SafetyCaution } from "@/components/shell/safety-caution";
@@ -38,8 +37,7 @@ export default async function CapturePage({ params }: { params: Promise<{ id: st
         <div><dt className="text-ink-600">sha256</dt><dd className="mt-1 truncate font-mono text-xs" title={c.sha256}>{c.sha256}</dd></div>
         {c.notes ? <div className="col-span-full"><dt className="text-ink-600">Notes</dt><dd className="mt-1 whitespace-pre-wrap">{c.notes}</dd></div> : null}
       </dl>
-      {view.canCorrect && ["analysed", "rejected", "failed"].includes(c.state) ? <div className="mb-6"><CorrectionForm capture={c} channels={channels} planSteps={view.planSteps} /></div> : null}
-      <CaptureLive initial={c} canReanalyse={view.canReanalyse} />
+      <CaptureLive initial={c} canReanalyse={view.canReanalyse} correction={view.canCorrect ? { channels, planSteps: view.planSteps } : null} />
       {view.corrections.length > 0 ? (
         <section className="mt-8" aria-labelledby="corrections">
           <h2 id="corrections" className="mb-2 text-lg font-semibold">Corrections</h2>

@@ -2,8 +2,8 @@ import { notFound } from "next/navigation";
 import { RatingForm } from "@/components/ratings/rating-form";
 import { PageHeader } from "@/components/shell/page-header";
 import { Notice } from "@/components/ui/notice";
-import { HttpError, requireRole } from "@/lib/auth/guards";
-import { actorForUser } from "@/lib/dal/actor";
+import { HttpError } from "@/lib/auth/guards";
+import { requireRoleActor } from "@/lib/dal/actor";
 import { getRatingPageView } from "@/lib/dal/rating-page";
 import { rejudgeRatingAction, setRatingRetiredAction, updateRatingAction } from "../actions";
 import { PlanSection } from "./_components/plan-section";
@@ -15,11 +15,11 @@ type Search = Record<string, string | string[] | undefined>;
 const SAVED: Record<string, string> = { created: "Rating created with profile version 1.", nameplate: "Nameplate saved.", profile: "New profile version saved.", plan: "Test plan saved; the units' plan states were recomputed." };
 
 export default async function RatingPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<Search> }) {
-  const user = await requireRole("admin", "operator", "qa");
+  const actor = await requireRoleActor("admin", "operator", "qa");
   const [{ id }, search] = await Promise.all([params, searchParams]);
   let view;
   try {
-    view = await getRatingPageView(actorForUser(user), id);
+    view = await getRatingPageView(actor, id);
   } catch (err) {
     if (err instanceof HttpError && err.status === 404) notFound();
     throw err;

@@ -2,9 +2,8 @@
 
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
-import { recordDisposition } from "@/db/queries/unit-events";
 import { requireRole } from "@/lib/auth/guards";
-import { scopeFor } from "@/lib/dal/scope";
+import { recordUnitDisposition } from "@/lib/dal/dispositions";
 
 const dispositionSchema = z.object({
   unitId: z.uuid(),
@@ -15,7 +14,7 @@ const dispositionSchema = z.object({
 export type DispositionState = { ok: boolean; message: string; values?: { to: string; comment: string } };
 
 export async function setDisposition(_prev: DispositionState, form: FormData): Promise<DispositionState> {
-  const user = await requireRole("qa", "admin");
+  await requireRole("qa", "admin");
   const parsed = dispositionSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return { ok: false, message: "Pick a disposition." };
   const { unitId, to, comment } = parsed.data;
@@ -24,7 +23,7 @@ export async function setDisposition(_prev: DispositionState, form: FormData): P
   if (to !== "accepted" && to !== "open" && comment.length < 5) {
     return { ok: false, message: "Say why: a concession, rework or scrap needs a comment for the record.", values };
   }
-  const outcome = await recordDisposition(scopeFor(user), unitId, user.id, to, comment);
+  const outcome = await recordUnitDisposition(unitId, to, comment);
   if (outcome === "out-of-scope") return { ok: false, message: "That unit is not one your lab tests.", values };
   if (outcome === "unchanged") return { ok: false, message: `The unit is already ${to}: pick another disposition.`, values };
   revalidatePath(`/units/${unitId}`);

@@ -2,7 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { requireRole } from "@/lib/auth/guards";
-import { actorForUser } from "@/lib/dal/actor";
+import { requirePageActor } from "@/lib/dal/actor";
 import { HttpError } from "@/lib/auth/guards";
 import { setStepRecord, stepRecordSchema } from "@/lib/dal/unit-plan";
 
@@ -10,11 +10,11 @@ export type RecordChoiceState = { ok: boolean; message: string };
 
 /** A quality engineer picks the capture of record of a plan step, with a reason. */
 export async function chooseRecord(_prev: RecordChoiceState, form: FormData): Promise<RecordChoiceState> {
-  const user = await requireRole("qa", "admin");
+  await requireRole("qa", "admin");
   const parsed = stepRecordSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return { ok: false, message: parsed.error.issues.map((i) => i.message).join("; ") };
   try {
-    await setStepRecord(actorForUser(user), parsed.data);
+    await setStepRecord(await requirePageActor(), parsed.data);
   } catch (err) {
     if (err instanceof HttpError) return { ok: false, message: err.message };
     throw err;

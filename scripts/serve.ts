@@ -1,0 +1,27 @@
+// Serves the built app like `next start`, but decides the client's address itself: X-Forwarded-For is
+// replaced by the socket's address, or, when the socket is a proxy listed in TRUSTED_PROXIES, by the
+// address that proxy reports. `next start` keeps whatever X-Forwarded-For a client sends, which let
+// anyone pick the address the per-address sign-in limits count.
+// Usage: tsx scripts/serve.ts [--host 127.0.0.1] [--port 3000]
+import http from "node:http";
+import { parseArgs } from "node:util";
+import next from "next";
+import { clientAddressOf, parseTrustedProxies } from "@/lib/server/client-address";
+import { getEnv } from "@/lib/server/env";
+
+const { values } = parseArgs({ options: { host: { type: "string", default: "127.0.0.1" }, port: { type: "string", default: "3000" } } });
+const host = values.host;
+const port = Number(values.port);
+const app = next({ dev: false, hostname: host, port });
+await app.prepare();
+const handle = app.getRequestHandler();
+// After prepare(): Next has loaded .env files by then, as `next start` does.
+const trusted = parseTrustedProxies(getEnv().TRUSTED_PROXIES);
+
+http
+  .createServer((req, res) => {
+    req.headers["x-forwarded-for"] = clientAddressOf(req.socket.remoteAddress, req.headers["x-forwarded-for"], trusted);
+    delete req.headers["x-real-ip"];
+    void handle(req, res);
+  })
+  .listen(port, host, () => console.log(`Emfolio on http://${host}:${port}${trusted.size ? ` (trusted proxies: ${[...trusted].join(", ")})` : ""}`));
