@@ -162,7 +162,7 @@ describe("versioning with a real analysis", () => {
     await replacePlan(admin, rating.id, { steps: [{ name: "No-load", testKind: "no-load", speedRpm: 1500, speedTolerancePercent: 2, checks: ["voltage", "frequency", "thd"] }] });
     const { token } = await createStationToken(labId);
     const serial = `AN-${run}-1`;
-    const { id } = await uploadViaApi(token, makeThreePhaseCsv({ variant: Number(run) % 9973 }), { unitSerial: serial, newUnitRatingId: rating.id, speedRpm: 1500 });
+    const { id } = await uploadViaApi(token, makeThreePhaseCsv({ variant: Number(run) % 9973 }), { unitSerial: serial, newUnitRatingId: rating.id, confirmNewUnit: true, speedRpm: 1500 });
     await waitForState(labId, id, ["analysed"]);
     const [first] = await getDb().select().from(analyses).where(eq(analyses.captureId, id));
     const history = await getProfileHistory(admin, rating.id);
