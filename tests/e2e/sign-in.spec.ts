@@ -3,9 +3,9 @@ import { ACCOUNTS, signIn, signOut } from "./support";
 
 test("each role signs in and sees its own navigation", async ({ page }) => {
   const expected = {
-    admin: ["Overview", "Units", "Captures", "New capture", "Review queue", "Trends", "Benches", "People", "Outbox"],
-    operator: ["Overview", "New capture", "Captures", "Units", "Benches"],
-    qa: ["Overview", "Review queue", "Units", "Captures", "Trends"],
+    admin: ["Overview", "Units", "Captures", "New capture", "Review queue", "Trends", "Ratings", "Benches", "Clients", "People", "Outbox"],
+    operator: ["Overview", "New capture", "Captures", "Units", "Ratings", "Benches"],
+    qa: ["Overview", "Review queue", "Units", "Captures", "Trends", "Ratings"],
     kestrum: ["Overview", "Units"],
   } as const;
   for (const [who, links] of Object.entries(expected) as [keyof typeof expected, readonly string[]][]) {

@@ -7,7 +7,7 @@ test("a quality engineer re-runs an analysed capture; the page follows it live a
   const run = Date.now() % 1_000_000;
   await signIn(page, "operator");
   await page.goto("/upload");
-  await page.getByLabel("Unit serial").fill("KG45-260304");
+  await page.getByLabel("Unit serial").fill("KG45-260310");
   await page.getByLabel("Capture files").setInputFiles([{ name: `rerun-${run}.csv`, mimeType: "text/csv", buffer: Buffer.from(makeThreePhaseCsv({ variant: run })) }]);
   await page.getByRole("button", { name: "Upload 1 file" }).click();
   const file = page.getByTestId("upload-file");

@@ -36,7 +36,7 @@ describe("nothing lost: the database is the source of truth", () => {
 
   it("Redis emptied of the queue while captures are queued → the start-up sweep re-enqueues them and they are analysed", async () => {
     const ids: string[] = [];
-    for (const [i, serial] of ["KG45-260304", "KG45-260305"].entries()) {
+    for (const [i, serial] of ["KG45-260306", "KG45-260307"].entries()) {
       const { id } = await uploadViaApi(token, makeThreePhaseCsv({ variant: run + 10 + i }), { unitSerial: serial });
       ids.push(id);
     }
