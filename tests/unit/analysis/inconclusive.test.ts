@@ -29,8 +29,14 @@ const judge = { rating: pmRating, profile: pmProfile, speedRpm: 1500 };
 describe("analyseCapture rejections of values", () => {
   const sine = (amplitude: number) => synthesise([{ order: 1, amplitude }], 50, 10000, 2001);
 
-  it("analyseCapture rejects a file around 1e200 (its squares overflow), naming the column and row (IEEE 754 double range)", () => {
-    const parsed = parseCaptureText(csv(10000, [{ id: "CH1 (V)", samples: sine(1e200) }]));
+  it("parseCaptureText refuses a file around 1e200 at its first such value, naming line and column (no measurement is that large)", () => {
+    const error = rejection(() => parseCaptureText(csv(10000, [{ id: "CH1 (V)", samples: sine(1e200) }])));
+    expect(error.message).toMatch(/line \d+/);
+    expect(error.message).toMatch(/CH1 \(V\)/);
+  });
+
+  it("analyseCapture rejects samples around 1e200 that reach it (its squares overflow), naming the column and row (IEEE 754 double range)", () => {
+    const parsed = captureOf([{ id: "CH1 (V)", samples: sine(1e200) }], 10000);
     const error = rejection(() => analyseCapture(parsed, judge));
     expect(error.code).toBe("value-overflow");
     expect(error.column).toBe("CH1 (V)");
@@ -54,7 +60,8 @@ describe("analyseCapture rejections of values", () => {
   });
 
   it("analyseCapture rejects samples a probe ratio pushed past the double range, naming the column and row (IEEE 754)", () => {
-    const parsed = parseCaptureText(csv(10000, [{ id: "V1", samples: sine(1e300) }]), { calibration: { V1: { scale: 1e10 } } });
+    // What a 1e10 probe ratio makes of samples around 1e300 (the parser now refuses such values itself).
+    const parsed = captureOf([{ id: "V1", samples: sine(1e300).map((v) => v * 1e10) }], 10000);
     const error = rejection(() => analyseCapture(parsed, judge));
     expect(error.code).toBe("value-not-finite");
     expect(error.column).toBe("V1");
