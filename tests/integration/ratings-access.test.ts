@@ -39,6 +39,9 @@ async function outcome(call: () => Promise<unknown>): Promise<string> {
     const digest = (err as { digest?: string }).digest ?? "";
     if (digest.startsWith("NEXT_REDIRECT")) return digest.split(";")[2] ?? "redirect";
     if (digest.startsWith("NEXT_HTTP_ERROR_FALLBACK;404")) return "404";
+    if (digest.startsWith("NEXT_HTTP_ERROR_FALLBACK;403")) return "/access-denied";
+    // Outside Next (no next.config), forbidden() refuses with this error instead of its digest: a refusal all the same.
+    if (err instanceof Error && err.message.includes("`forbidden()` is experimental")) return "/access-denied";
     throw err;
   }
 }
