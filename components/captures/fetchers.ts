@@ -19,7 +19,7 @@ async function call<T>(url: string, init?: RequestInit): Promise<T> {
   return body as T;
 }
 
-export type Registered = { capture: CaptureStatusView; duplicate: boolean; upload: UploadPlan | null };
+export type Registered = { capture: CaptureStatusView; duplicate: boolean; upload: UploadPlan | null; settingsDiffer?: Record<string, [unknown, unknown]> | null };
 
 export const captureKeys = {
   status: (id: string) => ["capture", id, "status"] as const,

@@ -2,6 +2,7 @@
 
 import { CHANNEL_ROLES, type ChannelRole } from "@/lib/analysis";
 import { ProgressBar } from "./capture-state-badge";
+import { ApplySettings } from "./apply-settings";
 import { LiveCaptureState } from "./live-capture-state";
 import type { FileEntry } from "./use-upload-queue";
 
@@ -78,6 +79,7 @@ export function FileEntryCard({ entry, onChange, onRemove }: {
           {entry.message}
         </p>
       ) : null}
+      {entry.captureId && entry.settingsDiffer ? <ApplySettings captureId={entry.captureId} differ={entry.settingsDiffer} /> : null}
       {entry.captureId && entry.phase === "sent" ? <LiveCaptureState captureId={entry.captureId} firstState={entry.firstState} /> : null}
     </li>
   );

@@ -32,6 +32,8 @@ export type FileEntry = {
   message: string | null;
   captureId: string | null;
   duplicate: boolean;
+  /** The file was stored already, with other settings: { field: [stored, sent] }. */
+  settingsDiffer: Record<string, [unknown, unknown]> | null;
   firstState: string | null;
 };
 
@@ -66,7 +68,7 @@ export function useUploadQueue(maxBytes: number) {
       files.map(async (file, i): Promise<FileEntry> => {
         const entry: FileEntry = {
           key: `${file.name}-${file.size}-${file.lastModified}-${Date.now()}-${i}`, file, scales: {}, offsets: {}, sampleRate: "", profileNote: null,
-          fraction: 0, captureId: null, duplicate: false, firstState: null, ...(await describeFile(file, maxBytes)),
+          fraction: 0, captureId: null, duplicate: false, settingsDiffer: null, firstState: null, ...(await describeFile(file, maxBytes)),
         };
         const prefill = stationId && entry.signature && entry.phase === "ready" ? await fetchPrefill(stationId, entry.signature, entry.channels, entry.roles) : null;
         return prefill ? { ...entry, ...prefill } : entry;
@@ -90,7 +92,7 @@ export function useUploadQueue(maxBytes: number) {
       if (!parsed.success) throw new Error(parsed.error.issues.map((i) => `${i.path.join(".") || "form"}: ${i.message}`).join("; "));
       const registered = await postRegistration(input);
       const id = registered.capture.id;
-      patch(entry.key, { captureId: id, duplicate: registered.duplicate });
+      patch(entry.key, { captureId: id, duplicate: registered.duplicate, settingsDiffer: registered.settingsDiffer ?? null });
       if (!registered.upload) {
         patch(entry.key, { phase: "sent", fraction: 1, firstState: registered.capture.state, message: "Already uploaded: this is the existing capture" });
         return;

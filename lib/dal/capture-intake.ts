@@ -67,7 +67,25 @@ async function planUpload(scope: Actor["scope"], capture: Capture): Promise<Uplo
  * progress (see UPLOAD_LEASE_S) and is taken over with fresh upload URLs once it is idle.
  * A registration that fails half-way (the object store unreachable) leaves no row behind.
  */
-export async function registerCapture(actor: Actor, input: Registration): Promise<{ capture: CaptureStatusView; duplicate: boolean; upload: UploadPlan | null }> {
+/**
+ * Settings of a re-sent file that differ from those stored with its capture: { field: [stored, sent] }.
+ * Only fields the sender gave count (empty roles or ratios mean "as before").
+ */
+function differingSettings(capture: Capture, input: Registration): Record<string, [unknown, unknown]> | null {
+  const sent: Record<string, unknown> = { testKind: input.testKind };
+  if (input.speedRpm !== undefined && input.speedRpm !== null) sent.speedRpm = input.speedRpm;
+  if (Object.keys(input.channelRoles).length > 0) sent.channelRoles = input.channelRoles;
+  if (Object.keys(input.probeScales).length > 0) sent.probeScales = input.probeScales;
+  if (input.channelOffsets && Object.keys(input.channelOffsets).length > 0) sent.channelOffsets = input.channelOffsets;
+  const out: Record<string, [unknown, unknown]> = {};
+  for (const [key, value] of Object.entries(sent)) {
+    const stored = capture[key as keyof Capture];
+    if (JSON.stringify(stored) !== JSON.stringify(value)) out[key] = [stored, value];
+  }
+  return Object.keys(out).length > 0 ? out : null;
+}
+
+export async function registerCapture(actor: Actor, input: Registration): Promise<{ capture: CaptureStatusView; duplicate: boolean; upload: UploadPlan | null; settingsDiffer?: Record<string, [unknown, unknown]> | null }> {
   const scope = requireUploader(actor);
   const limit = getEnv().UPLOAD_MAX_BYTES;
   if (input.sizeBytes > limit) throw new HttpError(413, `The file is ${mib(input.sizeBytes)}: the limit is ${mib(limit)}`);
@@ -88,7 +106,8 @@ export async function registerCapture(actor: Actor, input: Registration): Promis
     else if (capture.sizeBytes !== input.sizeBytes) throw new HttpError(409, "A capture with this sha256 but another size exists for this unit");
     const view = await getCaptureStatusView(actor, capture.id);
     if (!view) throw new Error("a capture just stored could not be read back");
-    return { capture: view, duplicate, upload };
+    // The same file with other settings: say so, so the sender can apply them as a correction (PATCH).
+    return { capture: view, duplicate, upload, settingsDiffer: upload ? null : differingSettings(capture, input) };
   }
   // A row just inserted whose answer does not reach the client (the store or the database failed
   // half-way) goes again, so the client's retry is a fresh registration, not an "upload in progress".
@@ -96,7 +115,8 @@ export async function registerCapture(actor: Actor, input: Registration): Promis
     const upload = await planUpload(scope, capture);
     const view = await getCaptureStatusView(actor, capture.id);
     if (!view) throw new Error("a capture just stored could not be read back");
-    return { capture: view, duplicate, upload };
+    // The same file with other settings: say so, so the sender can apply them as a correction (PATCH).
+    return { capture: view, duplicate, upload, settingsDiffer: upload ? null : differingSettings(capture, input) };
   } catch (err) {
     await deleteUploadingCapture(scope, capture.id).catch((e: unknown) => console.error(`could not remove half-registered capture ${capture.id}: ${String(e)}`));
     throw err;

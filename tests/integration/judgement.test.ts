@@ -75,8 +75,12 @@ describe("plausibility and correction", () => {
     expect(alert?.message).toMatch(/probe ratio/i);
     expect(report.verdicts.find((v) => v.check === "voltage")!.status).toBe("inconclusive");
 
-    const operator = await actorFor("operator");
     const scales = { "V_AN (V)": 100, "V_BN (V)": 100, "V_CN (V)": 100 };
+    // Sending the same file again with the ratio returns the stored capture and names what differs.
+    const again = await registerViaApi(token, makeThreePhaseCsv({ phaseRmsV: 2.3094, variant: run }), { unitSerial: unit.serial, speedRpm: 1500, probeScales: scales });
+    expect(again.status).toBe(200);
+    expect((again.body as { settingsDiffer?: Record<string, unknown> }).settingsDiffer).toHaveProperty("probeScales");
+    const operator = await actorFor("operator");
     await correctCapture(operator, id, { probeScales: scales, reason: "100:1 probes fitted, recorded at 1:1" });
     await expect(correctCapture(operator, id, { probeScales: scales, reason: "again while it runs" })).rejects.toThrow(/still being uploaded or analysed|already has/);
     await waitForState(labId, id, ["analysed", "rejected", "failed"]);
