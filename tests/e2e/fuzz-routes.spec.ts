@@ -56,7 +56,8 @@ test("fuzzing every route's path segments, query parameters and bodies answers o
       failures.push(`${label}: no answer (${err instanceof Error ? err.message.slice(0, 80) : err})`);
       return;
     }
-    if (status >= 500) failures.push(`${label}: ${status}`);
+    // Readiness answers 503 by design while a service it depends on is judged down (the fuzz load can make one slow).
+    if (status >= 500 && !(status === 503 && label.includes(" /api/health"))) failures.push(`${label}: ${status}`);
   };
   // A lab manager (who reaches the most code) and nobody (who reaches the guards only).
   for (const email of ["maren.ilsley@harrowgate.example", null]) {

@@ -20,6 +20,7 @@ test("the second upload of a file with a known header from the same bench is pre
   await page.goto("/upload");
   await page.getByLabel("Unit serial").fill(serial);
   await page.getByLabel("Rating of the new unit").selectOption({ index: 1 });
+  await page.getByLabel(`Register ${serial} as a new unit`).check();
   await page.getByLabel("Shaft speed (rpm)").fill("1500");
   const bench = await page.getByLabel("Bench").inputValue();
   expect(bench).not.toBe("");
