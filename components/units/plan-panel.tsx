@@ -7,7 +7,7 @@ import type { ReactNode } from "react";
 export const PLAN_STATE_WORDS: Record<PlanState, string> = {
   "complete-within": "Complete and within tolerance",
   incomplete: "Incomplete: steps missing",
-  failed: "Outside tolerance",
+  failed: "Failed: a plan step is not within tolerance",
   inconclusive: "Inconclusive: a step could not be judged",
 };
 
