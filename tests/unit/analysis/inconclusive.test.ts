@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { rejectionOf } from "./rejection-of";
 import { analyseCapture, CaptureRejection, judgeReport, parseCaptureText, type AnalysisReport } from "@/lib/analysis";
 import { largestSafeMagnitude, MIN_PEAK_TO_PEAK } from "@/lib/analysis/sample-check";
 import { CLIPPING_INVALIDATES, FEW_CYCLES_INVALIDATES, SAMPLE_RATE_INVALIDATES } from "@/lib/analysis/invalidation";
@@ -13,15 +14,6 @@ function csv(sampleRateHz: number, channels: { id: string; samples: Float64Array
   return rows.join("\n") + "\n";
 }
 
-function rejection(run: () => unknown): CaptureRejection {
-  try {
-    run();
-  } catch (error) {
-    if (error instanceof CaptureRejection) return error;
-    throw error;
-  }
-  throw new Error("expected a CaptureRejection");
-}
 
 const statuses = (report: AnalysisReport) => Object.fromEntries(report.verdicts.map((v) => [v.check, v.status]));
 const judge = { rating: pmRating, profile: pmProfile, speedRpm: 1500 };
@@ -30,14 +22,14 @@ describe("analyseCapture rejections of values", () => {
   const sine = (amplitude: number) => synthesise([{ order: 1, amplitude }], 50, 10000, 2001);
 
   it("parseCaptureText refuses a file around 1e200 at its first such value, naming line and column (no measurement is that large)", () => {
-    const error = rejection(() => parseCaptureText(csv(10000, [{ id: "CH1 (V)", samples: sine(1e200) }])));
+    const error = rejectionOf(() => parseCaptureText(csv(10000, [{ id: "CH1 (V)", samples: sine(1e200) }])));
     expect(error.message).toMatch(/line \d+/);
     expect(error.message).toMatch(/CH1 \(V\)/);
   });
 
   it("analyseCapture rejects samples around 1e200 that reach it (its squares overflow), naming the column and row (IEEE 754 double range)", () => {
     const parsed = captureOf([{ id: "CH1 (V)", samples: sine(1e200) }], 10000);
-    const error = rejection(() => analyseCapture(parsed, judge));
+    const error = rejectionOf(() => analyseCapture(parsed, judge));
     expect(error.code).toBe("value-overflow");
     expect(error.column).toBe("CH1 (V)");
     expect(error.message).toMatch(/sample row \d+/);
@@ -47,14 +39,14 @@ describe("analyseCapture rejections of values", () => {
   it("analyseCapture rejects a file around 1e-320 (subnormal: below 1 nV peak to peak), naming the column (IEEE 754 subnormal range)", () => {
     const parsed = parseCaptureText(csv(10000, [{ id: "CH1 (V)", samples: sine(1e-320) }], (v) => v.toExponential(3)));
     expect(parsed.channels[0]!.samples.some((v) => v !== 0 && Math.abs(v) < 2.2250738585072014e-308)).toBe(true);
-    const error = rejection(() => analyseCapture(parsed, judge));
+    const error = rejectionOf(() => analyseCapture(parsed, judge));
     expect(error.code).toBe("value-too-small");
     expect(error.column).toBe("CH1 (V)");
   });
 
   it("parseCaptureText refuses a cell beyond the double range (1e400) with its line and column (IEEE 754)", () => {
     const text = csv(10000, [{ id: "V1", samples: sine(325) }]).replace(/\n(0\.0100000000000,)[^\n]+/, "\n$11e400");
-    const error = rejection(() => parseCaptureText(text));
+    const error = rejectionOf(() => parseCaptureText(text));
     expect(error.line).toBe(102);
     expect(error.column).toBe("V1");
   });
@@ -62,7 +54,7 @@ describe("analyseCapture rejections of values", () => {
   it("analyseCapture rejects samples a probe ratio pushed past the double range, naming the column and row (IEEE 754)", () => {
     // What a 1e10 probe ratio makes of samples around 1e300 (the parser now refuses such values itself).
     const parsed = captureOf([{ id: "V1", samples: sine(1e300).map((v) => v * 1e10) }], 10000);
-    const error = rejection(() => analyseCapture(parsed, judge));
+    const error = rejectionOf(() => analyseCapture(parsed, judge));
     expect(error.code).toBe("value-not-finite");
     expect(error.column).toBe("V1");
     expect(error.message).toMatch(/sample row 1\b/);

@@ -1,15 +1,7 @@
 import { describe, expect, it } from "vitest";
+import { rejectionOf } from "./rejection-of";
 import { CaptureRejection, createCaptureParser, MAX_COLUMNS, parseCaptureText } from "@/lib/analysis";
 
-function rejectionOf(run: () => unknown): CaptureRejection {
-  try {
-    run();
-  } catch (error) {
-    if (error instanceof CaptureRejection) return error;
-    throw error;
-  }
-  throw new Error("expected a CaptureRejection");
-}
 
 const rows = (n: number, cell: (i: number) => string): string[] => Array.from({ length: n }, (_, i) => `${(i * 1e-3).toFixed(3)},${cell(i)}`);
 

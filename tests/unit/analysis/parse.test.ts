@@ -1,4 +1,5 @@
 import { readFileSync, readdirSync } from "node:fs";
+import { rejectionOf } from "./rejection-of";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { CaptureRejection, createCaptureParser, parseCaptureText, sniffCaptureHeader, type ParsedCapture } from "@/lib/analysis";
@@ -8,15 +9,6 @@ const layouts = readdirSync(path.join(FIXTURE_DIR, "layouts")).sort();
 const rejects = readdirSync(path.join(FIXTURE_DIR, "rejects")).sort();
 const readText = (dir: string, name: string): string => new TextDecoder().decode(readFileSync(path.join(FIXTURE_DIR, dir, name)));
 
-function rejectionOf(run: () => unknown): CaptureRejection {
-  try {
-    run();
-  } catch (error) {
-    if (error instanceof CaptureRejection) return error;
-    throw error;
-  }
-  throw new Error("expected a CaptureRejection");
-}
 
 function sameCapture(a: ParsedCapture, b: ParsedCapture): void {
   expect(a.sampleCount).toBe(b.sampleCount);
