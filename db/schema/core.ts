@@ -2,8 +2,8 @@ import { sql } from "drizzle-orm";
 import {
   bigint, boolean, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid,
 } from "drizzle-orm/pg-core";
-import type { Rating as RatingNameplate } from "../lib/analysis/rating";
-import type { CheckId, ToleranceProfile } from "../lib/analysis/tolerance";
+import type { Rating as RatingNameplate } from "../../lib/analysis/rating";
+import type { CheckId, ToleranceProfile } from "../../lib/analysis/tolerance";
 
 // Row types come from here and nowhere else.
 
@@ -272,6 +272,10 @@ export const unitEvents = pgTable(
     fromDisposition: disposition("from_disposition"),
     toDisposition: disposition("to_disposition"),
     comment: text("comment").notNull().default(""),
+    /** The client's concession reference, for "accepted with concession". */
+    concessionRef: text("concession_ref"),
+    /** The signature (db/schema/release.ts signatures) given for this decision, where one was asked. */
+    signatureId: uuid("signature_id"),
     /** What changed, for edits and record choices: { field: [before, after] } or ids. */
     detail: jsonb("detail").$type<Record<string, unknown>>(),
     createdAt: createdAt(),
