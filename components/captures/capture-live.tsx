@@ -13,7 +13,9 @@ import { fmtDate } from "./format";
 import { MetricsTable } from "./metrics-table";
 import { ReanalyseButton } from "./reanalyse-button";
 import { CaptureQueryProvider } from "./query-provider";
+import { VerdictSummary } from "./verdict-summary";
 import { VerdictsTable, WarningsList } from "./verdicts-table";
+import { PhasorDiagram } from "@/components/phasors/phasor-diagram";
 
 type Correction = { channels: string[]; planSteps: { id: string; name: string }[] } | null;
 
@@ -28,6 +30,7 @@ function CaptureLiveInner({ initial, canReanalyse, correction }: { initial: Capt
   const analysis = c.analysis;
   return (
     <div className="space-y-6">
+      {analysis ? <VerdictSummary report={analysis.report} /> : null}
       <div className="flex flex-wrap items-center gap-3 rounded-lg bg-white p-4 shadow-sm ring-1 ring-ink-200" aria-live="polite">
         <span className="text-sm font-semibold">State</span>
         <CaptureStateBadge state={c.state} progress={c.progress} />
@@ -62,11 +65,12 @@ function CaptureLiveInner({ initial, canReanalyse, correction }: { initial: Capt
             <p className="mt-2 text-xs text-ink-600">Advisory measurements against the rating&apos;s tolerance profile; release of the unit is a qualified person&apos;s decision.</p>
           </section>
           <WarningsList report={analysis.report} />
+          <PhasorDiagram report={analysis.report} />
           <section>
             <h2 className="mb-2 text-lg font-semibold">Metrics</h2>
             <MetricsTable report={analysis.report} />
           </section>
-          <CapturePlots captureId={c.id} analysedAt={c.analysedAt} />
+          <CapturePlots captureId={c.id} analysedAt={c.analysedAt} units={Object.fromEntries(analysis.report.channels.map((ch) => [ch.id, ch.unit]))} />
         </>
       ) : null}
     </div>
