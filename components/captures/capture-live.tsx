@@ -1,6 +1,7 @@
 "use client";
 
 import { useQuery } from "@tanstack/react-query";
+import type { ReactNode } from "react";
 import { Notice } from "@/components/ui/notice";
 import { StatusTag } from "@/components/ui/status-tag";
 import { ANALYSIS_VERSION } from "@/lib/analysis/version";
@@ -18,8 +19,9 @@ import { VerdictsTable, WarningsList } from "./verdicts-table";
 import { PhasorDiagram } from "@/components/phasors/phasor-diagram";
 
 type Correction = { channels: string[]; planSteps: { id: string; name: string }[] } | null;
+type Props = { initial: CaptureStatusView; canReanalyse: boolean; correction?: Correction; details?: ReactNode };
 
-function CaptureLiveInner({ initial, canReanalyse, correction }: { initial: CaptureStatusView; canReanalyse: boolean; correction: Correction }) {
+function CaptureLiveInner({ initial, canReanalyse, correction = null, details }: Props) {
   const { data } = useQuery({
     queryKey: captureKeys.status(initial.id),
     queryFn: () => fetchCaptureStatus(initial.id),
@@ -48,6 +50,7 @@ function CaptureLiveInner({ initial, canReanalyse, correction }: { initial: Capt
         {c.state === "queued" ? <p className="w-full text-xs text-ink-600">{c.stateMessage ?? "Waiting for a worker; this page updates by itself."}</p> : null}
         {c.state === "uploading" ? <p className="w-full text-xs text-ink-600">The upload was not completed. Send the same file again from the upload page to finish it.</p> : null}
       </div>
+      {details}
       {correction && isFinalState(c.state) ? <CorrectionForm capture={c} channels={correction.channels} planSteps={correction.planSteps} /> : null}
       {analysis && !isFinalState(c.state) ? <Notice kind="info">A new analysis run is on its way; the result below is the current one until it lands.</Notice> : null}
       {analysis && isFinalState(c.state) && analysis.analysisVersion !== ANALYSIS_VERSION ? (
@@ -77,11 +80,14 @@ function CaptureLiveInner({ initial, canReanalyse, correction }: { initial: Capt
   );
 }
 
-/** The live part of the capture page: state, then verdicts, metrics and plots once analysed. */
-export function CaptureLive({ initial, canReanalyse, correction = null }: { initial: CaptureStatusView; canReanalyse: boolean; correction?: Correction }) {
+/**
+ * The live part of the capture page: the overall verdict first, the state, the capture's details
+ * (server-rendered, passed in), then verdicts, phasors, metrics and plots once analysed.
+ */
+export function CaptureLive(props: Props) {
   return (
     <CaptureQueryProvider>
-      <CaptureLiveInner initial={initial} canReanalyse={canReanalyse} correction={correction} />
+      <CaptureLiveInner {...props} />
     </CaptureQueryProvider>
   );
 }

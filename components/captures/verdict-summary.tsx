@@ -2,7 +2,7 @@ import type { AnalysisReport, VerdictStatus } from "@/lib/analysis";
 import { formatFigureWithUnit, quantityFor } from "@/lib/verdicts/format-figure";
 import { marginOf } from "@/lib/verdicts/margin";
 import { verdictWord } from "@/lib/verdicts/words";
-import { StatusTag } from "@/components/ui/status-tag";
+import { StatusTag, verdictMark } from "@/components/ui/status-tag";
 
 export const BANNER: Record<VerdictStatus, string> = {
   pass: "bg-within-100 text-within-700 ring-within-700/30",
@@ -13,7 +13,6 @@ export const BANNER: Record<VerdictStatus, string> = {
   "not-applicable": "bg-ink-100 text-ink-600 ring-ink-200",
 };
 
-const MARK: Record<VerdictStatus, string> = { pass: "●", marginal: "◆", inconclusive: "?", fail: "▲", "not-required": "–", "not-applicable": "○" };
 
 // Outside first, then near the edge, then those that could not be judged.
 const ATTENTION: VerdictStatus[] = ["fail", "marginal", "inconclusive"];
@@ -22,7 +21,7 @@ const ATTENTION: VerdictStatus[] = ["fail", "marginal", "inconclusive"];
 export function OverallWord({ status }: { status: VerdictStatus | null }) {
   return (
     <p className="mt-1 text-3xl font-bold sm:text-4xl" data-testid="overall-word" data-status={status ?? "none"}>
-      <span aria-hidden className="mr-2">{status ? MARK[status] : "○"}</span>{verdictWord(status)}
+      <span aria-hidden className="mr-2">{verdictMark(status)}</span>{verdictWord(status)}
     </p>
   );
 }
