@@ -17,7 +17,7 @@ async function expectInsideViewport(page: Page, selector: ReturnType<Page["getBy
 }
 
 test("a three-phase capture shows its verdict in the upload list, the verdict first on its page and a phasor diagram", async ({ page }) => {
-  test.setTimeout(150_000);
+  test.setTimeout(240_000);
   const run = Date.now() % 1_000_000_000;
   await signIn(page, "operator");
   const card = await uploadForNewUnit(page, `KG45-AG${run}`, { name: `glance-${run}.csv`, csv: makeThreePhaseCsv({ variant: run }) });
@@ -46,7 +46,7 @@ test("a three-phase capture shows its verdict in the upload list, the verdict fi
 });
 
 test("at 390 px the menu folds away and the verdict column stays in view", async ({ page }) => {
-  test.setTimeout(150_000);
+  test.setTimeout(240_000);
   const run = Date.now() % 1_000_000_000;
   await signIn(page, "operator");
   const card = await uploadForNewUnit(page, `KG45-PH${run}`, { name: `phone-${run}.csv`, csv: makeThreePhaseCsv({ variant: run }) });
