@@ -1,6 +1,7 @@
 import { StatusTag } from "@/components/ui/status-tag";
 import type { AnalysisReport } from "@/lib/analysis";
 import { fmtWithUnit } from "./format";
+import { UncertaintyNote } from "./uncertainty-budget";
 
 /** Every judged check with its measured value, limits, verdict, basis and the limit's source; then the checks not required, with why. */
 export function VerdictsTable({ report }: { report: AnalysisReport }) {
@@ -19,7 +20,7 @@ export function VerdictsTable({ report }: { report: AnalysisReport }) {
             <tr key={v.check} className="border-t border-ink-100 align-top">
               <td className="sticky left-0 bg-white px-3 py-2 font-semibold">{v.label}</td>
               <td className="px-3 py-2"><StatusTag status={v.status} /></td>
-              <td className="px-3 py-2 tabular-nums">{fmtWithUnit(v.measured, v.unit)}</td>
+              <td className="px-3 py-2 tabular-nums">{fmtWithUnit(v.measured, v.unit)}<UncertaintyNote report={report} check={v.check} /></td>
               <td className="px-3 py-2 tabular-nums">
                 {v.lower === null && v.upper === null ? "—" : `${v.lower === null ? "" : fmtWithUnit(v.lower, v.unit)} … ${v.upper === null ? "" : fmtWithUnit(v.upper, v.unit)}`}
               </td>

@@ -20,6 +20,7 @@ import {
 } from "@/lib/server/storage";
 import type { z } from "zod";
 import { requireUploader, type Actor } from "./actor";
+import { recordRegistrationInstruments, resolveRegistrationInstruments } from "./capture-instruments";
 import { getCaptureStatusView, type CaptureStatusView } from "./captures";
 import { rememberOrApplyProfile } from "./import-profiles";
 import { readJson } from "./request";
@@ -92,6 +93,8 @@ export async function registerCapture(actor: Actor, input: Registration): Promis
   const stationId = actor.stationId ?? input.stationId ?? null;
   if (input.stationId && !actor.stationId && !(await getStation(scope, input.stationId))) throw new HttpError(422, "Unknown bench for this lab");
   const unit = await resolveUnit(scope, input);
+  // Unknown instruments are refused (400, field "instruments") before anything is stored.
+  const instruments = await resolveRegistrationInstruments(scope.labId, input.instruments);
   const id = randomUUID();
   const { capture, duplicate } = await insertCaptureOnce({
     id, unitId: unit.id, labId: scope.labId, stationId, uploadedById: actor.userId, stationKeyId: actor.stationKeyId,
@@ -112,6 +115,7 @@ export async function registerCapture(actor: Actor, input: Registration): Promis
   // A row just inserted whose answer does not reach the client (the store or the database failed
   // half-way) goes again, so the client's retry is a fresh registration, not an "upload in progress".
   try {
+    await recordRegistrationInstruments(capture.id, stationId, instruments);
     const upload = await planUpload(scope, capture);
     const view = await getCaptureStatusView(actor, capture.id);
     if (!view) throw new Error("a capture just stored could not be read back");
