@@ -22,7 +22,7 @@ export function CaptureInstruments({ captureId, summary, choices, canConfirm }: 
             : canConfirm ? <OverdueConfirmForm captureId={captureId} /> : <p className="mt-2 font-semibold">Not confirmed yet.</p>}
         </div>
       ) : null}
-      {summary.instruments.length === 0 ? <p className="mt-2 text-ink-600">None recorded: the figures' uncertainty is not evaluated.</p> : (
+      {summary.instruments.length === 0 ? <p className="mt-2 text-ink-600">None recorded: the figures&apos; uncertainty is not evaluated.</p> : (
         <ul className="mt-2 space-y-1">
           {summary.instruments.map((i) => (
             <li key={`${i.id}-${i.channel}`}>
