@@ -92,9 +92,9 @@ export async function registerCapture(actor: Actor, input: Registration): Promis
   if (input.sizeBytes > limit) throw new HttpError(413, `The file is ${mib(input.sizeBytes)}: the limit is ${mib(limit)}`);
   const stationId = actor.stationId ?? input.stationId ?? null;
   if (input.stationId && !actor.stationId && !(await getStation(scope, input.stationId))) throw new HttpError(422, "Unknown bench for this lab");
-  const unit = await resolveUnit(scope, input);
-  // Unknown instruments are refused (400, field "instruments") before anything is stored.
+  // Unknown instruments are refused (400, field "instruments") before anything is stored, a new unit included.
   const instruments = await resolveRegistrationInstruments(scope.labId, input.instruments);
+  const unit = await resolveUnit(scope, input);
   const id = randomUUID();
   const { capture, duplicate } = await insertCaptureOnce({
     id, unitId: unit.id, labId: scope.labId, stationId, uploadedById: actor.userId, stationKeyId: actor.stationKeyId,

@@ -2,6 +2,7 @@ import { and, eq, like } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { listLabManagers } from "@/db/queries/instruments";
+import { getUnitBySerial } from "@/db/queries/units";
 import { captureInstruments, mailOutbox, ratings } from "@/db/schema";
 import { DEMO_PASSWORD } from "@/db/seed-data";
 import { HttpError } from "@/lib/auth/guards";
@@ -11,6 +12,7 @@ import { createInstrument, listRegister, retireRegisterEntry, setBenchInstrument
 import { addDays, utcDay } from "@/lib/instruments/status";
 import { makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
 import { queueCalibrationReminders, reminderKey } from "@/worker/calibration-reminders";
+import { GET as getInstruments, PUT as putInstruments } from "@/app/api/v1/captures/[id]/instruments/route";
 import { closeConnections, createStationToken, demoActor, registerViaApi } from "./pipeline-support";
 import { seededOrgs } from "./helpers";
 
@@ -87,8 +89,9 @@ describe("instrument register authorization", () => {
 
 describe("bench API instruments field", () => {
   it("POST /api/v1/captures refuses an unknown instrument with 400 naming the field, and stores nothing", async () => {
-    const { reg } = await registerNewUnitCapture({ instruments: [`NO-SUCH-${run}`] });
+    const { reg, serial } = await registerNewUnitCapture({ instruments: [`NO-SUCH-${run}`] });
     expect(reg.status).toBe(400);
+    expect(await getUnitBySerial({ kind: "lab", labId }, serial)).toBeUndefined();
     expect(reg.body.error).toMatch(/instruments\.0/);
     expect(reg.body.error).toMatch(new RegExp(`NO-SUCH-${run}`));
   });
@@ -106,6 +109,26 @@ describe("bench API instruments field", () => {
     const rowsBench = await getDb().select().from(captureInstruments).where(eq(captureInstruments.captureId, fromBench.body.capture!.id));
     expect(rowsBench.map((r) => r.instrumentId)).toEqual([preset.id]);
     await setBenchInstruments(admin, stationId, []);
+  });
+});
+
+describe("PUT /api/v1/captures/{id}/instruments", () => {
+  const call = (method: "GET" | "PUT", id: string, body?: unknown) =>
+    new Request(`http://test/api/v1/captures/${id}/instruments`, { method, headers: { Authorization: `Bearer ${token}`, "Content-Type": "application/json" }, body: body === undefined ? undefined : JSON.stringify(body) });
+
+  it("PUT /api/v1/captures/{id}/instruments replaces the list by asset tag and refuses an unknown one naming the field", async () => {
+    const scope = await createInstrument(admin, entry(`PUT-${run}`, { kind: "oscilloscope" }));
+    const { reg } = await registerNewUnitCapture({ instruments: [] });
+    const id = reg.body.capture!.id;
+    const params = { params: Promise.resolve({ id }) };
+    const bad = await putInstruments(call("PUT", id, { instruments: [scope.assetTag, `GHOST-${run}`] }), params);
+    expect(bad.status).toBe(400);
+    expect(((await bad.json()) as { error: string }).error).toMatch(/instruments\.1/);
+    const ok = await putInstruments(call("PUT", id, { instruments: [{ instrument: scope.assetTag, channel: "vab" }] }), params);
+    expect(ok.status).toBe(200);
+    const read = (await (await getInstruments(call("GET", id), params)).json()) as { instruments: { assetTag: string; channel: string }[]; warnings: string[] };
+    expect(read.instruments.map((i) => [i.assetTag, i.channel])).toEqual([[scope.assetTag, "vab"]]);
+    expect(read.warnings).toEqual([]);
   });
 });
 
