@@ -8,7 +8,7 @@ import { DEMO_PASSWORD } from "@/db/seed-data";
 import { HttpError } from "@/lib/auth/guards";
 import type { Actor } from "@/lib/dal/actor";
 import { confirmOverdueCapture, getCaptureInstruments, releaseBlockersFromInstruments } from "@/lib/dal/capture-instruments";
-import { createInstrument, listRegister, retireRegisterEntry, setBenchInstruments } from "@/lib/dal/instruments";
+import { benchInstruments, createInstrument, listRegister, retireRegisterEntry, setBenchInstruments } from "@/lib/dal/instruments";
 import { addDays, utcDay } from "@/lib/instruments/status";
 import { makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
 import { queueCalibrationReminders, reminderKey } from "@/worker/calibration-reminders";
@@ -99,6 +99,7 @@ describe("bench API instruments field", () => {
   it("POST /api/v1/captures records the named instruments by asset tag, and the bench's default set when none are named", async () => {
     const named = await createInstrument(admin, entry(`NAMED-${run}`, { kind: "oscilloscope" }));
     const preset = await createInstrument(admin, entry(`BENCH-${run}`, { kind: "tachometer", spec: { speedPercentOfReading: 0.05 } }));
+    const before = (await benchInstruments(admin, stationId)).map((r) => r.instrument.id);
     await setBenchInstruments(admin, stationId, [preset.id]);
     const withNamed = (await registerNewUnitCapture({ instruments: [named.assetTag.toLowerCase()] })).reg;
     expect(withNamed.status).toBe(201);
@@ -108,7 +109,7 @@ describe("bench API instruments field", () => {
     expect(fromBench.status).toBe(201);
     const rowsBench = await getDb().select().from(captureInstruments).where(eq(captureInstruments.captureId, fromBench.body.capture!.id));
     expect(rowsBench.map((r) => r.instrumentId)).toEqual([preset.id]);
-    await setBenchInstruments(admin, stationId, []);
+    await setBenchInstruments(admin, stationId, before); // the demo bench keeps its seeded set
   });
 });
 
