@@ -21,8 +21,8 @@ beforeAll(async () => {
   const admin = await demoActor("admin");
   const today = utcDay(new Date());
   const dates = { calibratedOn: addDays(today, -30), calibrationDue: addDays(today, 300), calibrationNote: "" };
-  await createInstrument(admin, { kind: "oscilloscope", make: "Test", model: "S-1", serial: `S-${run}`, assetTag: `U-OSC-${run}`, spec: { gainPercentOfReading: 1.5, offset: 0.05, offsetUnit: "V", timebasePpm: 25 }, ...dates });
-  await createInstrument(admin, { kind: "voltage-probe", make: "Test", model: "P-1", serial: `P-${run}`, assetTag: `U-VP-${run}`, spec: { gainPercentOfReading: 1 }, ...dates });
+  await createInstrument(admin, { kind: "oscilloscope", make: "Fenwick Metrology", model: "FM-S1", serial: `S-${run}`, assetTag: `U-OSC-${run}`, spec: { gainPercentOfReading: 1.5, offset: 0.05, offsetUnit: "V", timebasePpm: 25 }, ...dates });
+  await createInstrument(admin, { kind: "voltage-probe", make: "Fenwick Metrology", model: "FM-P1", serial: `P-${run}`, assetTag: `U-VP-${run}`, spec: { gainPercentOfReading: 1 }, ...dates });
   worker = await startWorker();
 }, 60_000);
 afterAll(async () => {
