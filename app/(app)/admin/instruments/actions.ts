@@ -5,6 +5,7 @@ import { z } from "zod";
 import { requireRoleActor } from "@/lib/dal/actor";
 import { createInstrument, editInstrument, retireRegisterEntry, setBenchInstruments } from "@/lib/dal/instruments";
 import { refusedForm, type SetupFormState } from "@/lib/dal/setup-access";
+import { asForm } from "@/lib/forms/fields";
 import { specFromForm } from "@/lib/instruments/input-schemas";
 
 const idSchema = z.object({ instrumentId: z.uuid("No such instrument") });
@@ -22,6 +23,7 @@ function instrumentFields(form: FormData) {
 
 /** Adds an instrument to the register, or (with instrumentId) edits one. Lab managers only. */
 export async function saveInstrumentAction(_prev: SetupFormState, form: FormData): Promise<SetupFormState> {
+  form = asForm(form);
   const actor = await requireRoleActor("admin");
   const id = form.get("instrumentId");
   let tag: string;
@@ -42,6 +44,7 @@ export async function saveInstrumentAction(_prev: SetupFormState, form: FormData
 
 /** Retires an instrument; the captures that used it keep it on record. */
 export async function retireInstrumentAction(_prev: SetupFormState, form: FormData): Promise<SetupFormState> {
+  form = asForm(form);
   const actor = await requireRoleActor("admin");
   const parsed = idSchema.safeParse({ instrumentId: form.get("instrumentId") });
   if (!parsed.success) return { ok: false, message: "No such instrument in your lab." };
@@ -56,6 +59,7 @@ export async function retireInstrumentAction(_prev: SetupFormState, form: FormDa
 
 /** Replaces a bench's default instrument set with the ticked instruments. */
 export async function saveBenchSetAction(_prev: SetupFormState, form: FormData): Promise<SetupFormState> {
+  form = asForm(form);
   const actor = await requireRoleActor("admin");
   const parsed = benchSchema.safeParse({ stationId: form.get("stationId") });
   if (!parsed.success) return { ok: false, message: "No such bench in your lab." };

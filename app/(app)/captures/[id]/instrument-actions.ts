@@ -4,15 +4,17 @@ import { headers } from "next/headers";
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { clientAddressFrom } from "@/lib/auth/client-address";
-import { requirePageActor } from "@/lib/dal/actor";
+import { requireRoleActor } from "@/lib/dal/actor";
 import { confirmOverdueCapture, setCaptureInstruments } from "@/lib/dal/capture-instruments";
 import { refusedForm, type SetupFormState } from "@/lib/dal/setup-access";
+import { asForm } from "@/lib/forms/fields";
 
 const captureIdSchema = z.object({ captureId: z.uuid("No such capture") });
 
 /** Replaces the instruments recorded for a capture with the ticked ones (lab staff). */
 export async function saveCaptureInstrumentsAction(_prev: SetupFormState, form: FormData): Promise<SetupFormState> {
-  const actor = await requirePageActor();
+  form = asForm(form);
+  const actor = await requireRoleActor("admin", "operator", "qa");
   const parsed = captureIdSchema.safeParse({ captureId: form.get("captureId") });
   if (!parsed.success) return { ok: false, message: "No such capture." };
   const ids = form.getAll("instrumentIds").filter((v): v is string => typeof v === "string");
@@ -27,7 +29,8 @@ export async function saveCaptureInstrumentsAction(_prev: SetupFormState, form: 
 
 /** A quality engineer's signed confirmation of a capture taken with an overdue instrument. */
 export async function confirmOverdueAction(_prev: SetupFormState, form: FormData): Promise<SetupFormState> {
-  const actor = await requirePageActor();
+  form = asForm(form);
+  const actor = await requireRoleActor("qa");
   const raw = { captureId: form.get("captureId"), reason: form.get("reason") ?? "", password: form.get("password") ?? "" };
   try {
     await confirmOverdueCapture(actor, raw, clientAddressFrom(await headers()));
