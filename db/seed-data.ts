@@ -79,3 +79,21 @@ export const secondLab = {
   rating: { org: "kestrum", modelCode: "KG-45T", basedOn: "KG-45T" },
   units: ["KG45-CW0001", "KG45-CW0002", "KG45-CW0003"],
 } as const;
+
+/**
+ * Harrowgate's instrument register (invented makes, models and serials). Dates are days from the day the
+ * seed runs: one tachometer is overdue (and took some PX-120 captures), one probe falls due within 14 days.
+ * `benches` names the bench default sets (demoStations) the instrument belongs to.
+ */
+export const demoInstruments = [
+  { assetTag: "HG-OSC-07", kind: "oscilloscope", make: "Tessary", model: "WX-4104", serial: "TW4104-55817", spec: { gainPercentOfReading: 1.5, offset: 0.05, offsetUnit: "V", bandwidthHz: 200e6, timebasePpm: 25, resolutionBits: 12 }, calibratedDaysAgo: 120, dueInDays: 245, benches: [0, 1] },
+  { assetTag: "HG-VP-21", kind: "voltage-probe", make: "Orlen Instruments", model: "HDP-1500", serial: "OI-HDP-30418", spec: { gainPercentOfReading: 1, bandwidthHz: 100e6 }, calibratedDaysAgo: 355, dueInDays: 10, benches: [0] },
+  { assetTag: "HG-VP-22", kind: "voltage-probe", make: "Orlen Instruments", model: "HDP-1500", serial: "OI-HDP-30422", spec: { gainPercentOfReading: 1, bandwidthHz: 100e6 }, calibratedDaysAgo: 60, dueInDays: 305, benches: [1] },
+  { assetTag: "HG-DAQ-03", kind: "daq", make: "Marrow Data", model: "MD-816", serial: "MD816-002291", spec: { gainPercentOfReading: 0.1, offset: 0.002, offsetUnit: "V", timebasePpm: 50, resolutionBits: 16 }, calibratedDaysAgo: 30, dueInDays: 335, benches: [] },
+  { assetTag: "HG-TAC-11", kind: "tachometer", make: "Quillon", model: "OT-90", serial: "QOT90-7741", spec: { speedPercentOfReading: 0.02, speedOffsetRpm: 1 }, calibratedDaysAgo: 385, dueInDays: -20, benches: [] },
+  { assetTag: "HG-TAC-12", kind: "tachometer", make: "Quillon", model: "OT-90", serial: "QOT90-7802", spec: { speedPercentOfReading: 0.02, speedOffsetRpm: 1 }, calibratedDaysAgo: 40, dueInDays: 325, benches: [1] },
+] as const;
+
+/** PX-120 units whose demo captures were taken with the overdue tachometer (they carry the warning). */
+export const overdueInstrumentUnits = ["PX120-B1021", "PX120-B1022"] as const;
+export const OVERDUE_DEMO_TACHOMETER = "HG-TAC-11";

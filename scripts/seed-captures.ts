@@ -4,7 +4,8 @@
 import { createHash } from "node:crypto";
 import { closeDb } from "@/db/queries/connection";
 import { findActiveUserByEmail } from "@/db/queries/users";
-import { demoUsers } from "@/db/seed-data";
+import { listStations } from "@/db/queries/stations";
+import { demoStations, demoUsers, OVERDUE_DEMO_TACHOMETER, overdueInstrumentUnits } from "@/db/seed-data";
 import { actorForStoredUser } from "@/lib/dal/actor";
 import { completeCaptureUpload, registerCapture } from "@/lib/dal/capture-intake";
 import { closeAnalysisQueue } from "@/lib/server/queue";
@@ -16,12 +17,18 @@ async function main() {
   const row = operatorEmail ? await findActiveUserByEmail(operatorEmail) : undefined;
   if (!row) throw new Error("the demo operator is missing: run scripts/seed.ts first");
   const actor = await actorForStoredUser(row.id);
+  const benches = await listStations(actor.scope);
+  const benchId = (name: string) => benches.find((b) => b.name === name)?.id;
   for (const [i, c] of demoCaptures.entries()) {
+    // Alternators on bay 1, PM machines on the spin rig; each takes its bench's default instruments,
+    // except the PX-120 units spun with the tachometer that was past its calibration date.
+    const stationId = benchId(c.testKind === "back-emf" ? demoStations[1].name : demoStations[0].name);
+    const instruments = (overdueInstrumentUnits as readonly string[]).includes(c.serial) ? ["HG-OSC-07", "HG-VP-22", OVERDUE_DEMO_TACHOMETER] : undefined;
     const body = renderDemoCsv({ ...c.wave, seed: 1000 + i });
     const bytes = Buffer.from(body, "utf8");
     const { capture, upload, duplicate } = await registerCapture(actor, {
       unitSerial: c.serial, testKind: c.testKind, speedRpm: c.speedRpm, channelRoles: c.roles as never, probeScales: {}, channelOffsets: {},
-      notes: c.notes, fileName: `${c.serial}-${c.testKind}.csv`, sizeBytes: bytes.length,
+      notes: c.notes, fileName: `${c.serial}-${c.testKind}.csv`, sizeBytes: bytes.length, stationId, instruments,
       sha256: createHash("sha256").update(bytes).digest("hex"),
     });
     // The same bytes for the same unit are the same capture: a second run adds nothing.

@@ -6,6 +6,7 @@ import { getEnv } from "@/lib/server/env";
 import { ANALYSIS_QUEUE, closeAnalysisQueue, createRedis, type AnalysisJobData } from "@/lib/server/queue";
 import { logDetail } from "@/lib/server/outage";
 import { sweepAbandonedUploads } from "./abandoned-uploads";
+import { queueCalibrationReminders } from "./calibration-reminders";
 import { failureMessage, isOutageReason } from "./processors/messages";
 import { sweepAbandonedCaptures } from "./recovery";
 
@@ -52,6 +53,8 @@ worker.on("failed", (job: Job<AnalysisJobData> | undefined, err: Error) => {
 let stopping = false;
 let sweeping: Promise<void> | null = null;
 let soon: NodeJS.Timeout | null = null;
+/** The UTC day calibration reminders were last queued for (daily; the outbox dedupes anyway). */
+let remindedOn: string | null = null;
 
 /** One sweep at a time; a sweep asked for while one runs is folded into it. */
 function sweep(reason: string): Promise<void> {
@@ -78,6 +81,12 @@ async function runSweep(reason: string): Promise<void> {
     if (u.removed) log(`sweep (${reason}): ${u.removed} upload(s) abandoned over ${env.UPLOAD_ABANDON_HOURS} h ago removed`);
     if (u.partsLeft) log(`sweep (${reason}): the object store cannot abort multipart uploads; parts of ${u.partsLeft} upload(s) stay there (use a lifecycle rule)`);
     for (const e of u.storageErrors) console.error(`sweep (${reason}): could not clean storage of an abandoned upload: ${e}`);
+    const today = new Date().toISOString().slice(0, 10);
+    if (remindedOn !== today) {
+      const queued = await queueCalibrationReminders(today, env.NEXTAUTH_URL ?? "");
+      remindedOn = today;
+      if (queued) log(`sweep (${reason}): ${queued} calibration reminder(s) queued`);
+    }
   } catch (err) {
     console.error(`sweep (${reason}) failed: ${logDetail(err)}`);
     scheduleSweep(`retry of the ${reason} sweep`, 5_000);

@@ -1,8 +1,11 @@
 import Link from "next/link";
 import { PageHeader } from "@/components/shell/page-header";
 import { SafetyCaution } from "@/components/shell/safety-caution";
+import { InstrumentsDueSoon } from "@/components/instruments/due-soon";
 import { EmptyState } from "@/components/ui/empty-state";
 import { requireUser } from "@/lib/auth/guards";
+import { requirePageActor } from "@/lib/dal/actor";
+import { instrumentsDueSoon } from "@/lib/dal/instruments";
 import { getHomeCounts } from "@/lib/dal/units";
 
 const NEXT_STEP = {
@@ -15,6 +18,7 @@ const NEXT_STEP = {
 export default async function HomePage() {
   const user = await requireUser();
   const counts = await getHomeCounts();
+  const dueSoon = user.role === "admin" ? await instrumentsDueSoon(await requirePageActor()) : [];
   const step = NEXT_STEP[user.role];
   const tiles = [
     { label: "Units", value: counts.total, href: "/units" },
@@ -31,6 +35,7 @@ export default async function HomePage() {
         <p className="mt-1 text-sm text-ink-600">{step.text}</p>
         <Link href={step.href} className="mt-3 inline-block font-semibold">{step.cta} →</Link>
       </section>
+      <InstrumentsDueSoon rows={dueSoon} />
       {counts.total === 0 ? (
         <EmptyState title="No units yet">
           {user.role === "manufacturer" ? "Your units appear here once the lab has tested them." : "Upload a first capture to register a unit."}

@@ -7,6 +7,7 @@ import { Notice } from "@/components/ui/notice";
 import { TEST_KIND_LABELS, TEST_KINDS } from "@/lib/captures/input-schemas";
 import { similarSerials } from "@/lib/units/similar-serials";
 import { FileEntryCard } from "./file-entry-card";
+import { UploadInstruments, type UploadInstrumentOptions } from "./upload-instruments";
 import { CaptureQueryProvider } from "./query-provider";
 import { useLeaveGuard } from "./use-leave-guard";
 import { useUploadQueue, type BatchMeta } from "./use-upload-queue";
@@ -16,6 +17,7 @@ export type UploadFormOptions = {
   ratings: { id: string; label: string }[];
   stations: { id: string; name: string }[];
   maxBytes: number;
+  instrumentOptions: UploadInstrumentOptions;
 };
 
 function UploadFormInner({ options }: { options: UploadFormOptions }) {
@@ -25,6 +27,7 @@ function UploadFormInner({ options }: { options: UploadFormOptions }) {
   const [testKind, setTestKind] = useState<BatchMeta["testKind"]>("no-load");
   const [speed, setSpeed] = useState("");
   const [stationId, setStationId] = useState(options.stations[0]?.id ?? "");
+  const [instrumentIds, setInstrumentIds] = useState<string[]>(options.instrumentOptions.benchSets[options.stations[0]?.id ?? ""] ?? []);
   const [notes, setNotes] = useState("");
   const [problem, setProblem] = useState<string | null>(null);
   const [dragging, setDragging] = useState(false);
@@ -55,7 +58,7 @@ function UploadFormInner({ options }: { options: UploadFormOptions }) {
     setBusy(true);
     await queue.uploadAll({
       unitSerial: serial.trim(), newUnitRatingId: known ? undefined : ratingId, confirmNewUnit: known ? undefined : confirmNew, testKind, speedRpm,
-      stationId: stationId || undefined, notes,
+      stationId: stationId || undefined, notes, instruments: instrumentIds,
     });
     setBusy(false);
   };
@@ -96,11 +99,12 @@ function UploadFormInner({ options }: { options: UploadFormOptions }) {
           <TextInput inputMode="decimal" value={speed} onChange={(e) => setSpeed(e.target.value)} />
         </Field>
         <Field label="Bench">
-          <Select value={stationId} onChange={(e) => setStationId(e.target.value)}>
+          <Select value={stationId} onChange={(e) => { setStationId(e.target.value); setInstrumentIds(options.instrumentOptions.benchSets[e.target.value] ?? []); }}>
             <option value="">Not recorded</option>
             {options.stations.map((s) => <option key={s.id} value={s.id}>{s.name}</option>)}
           </Select>
         </Field>
+        <UploadInstruments options={options.instrumentOptions} value={instrumentIds} onChange={setInstrumentIds} />
         <Field label="Notes">
           <TextArea value={notes} onChange={(e) => setNotes(e.target.value)} maxLength={2000} />
         </Field>

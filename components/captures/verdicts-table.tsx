@@ -2,9 +2,16 @@ import { StatusTag } from "@/components/ui/status-tag";
 import type { AnalysisReport } from "@/lib/analysis";
 import { formatFigureWithUnit, quantityFor } from "@/lib/verdicts/format-figure";
 import { marginOf } from "@/lib/verdicts/margin";
+import { UncertaintyNote } from "./uncertainty-budget";
 
-const figure = (value: number | string | null, unit: string, check: string) =>
-  typeof value === "string" ? value : formatFigureWithUnit(value, unit, { quantity: quantityFor(unit, check) });
+const figure = (value: number | string | null, unit: string, check: string, uncertainty: number | null = null) =>
+  typeof value === "string" ? value : formatFigureWithUnit(value, unit, { quantity: quantityFor(unit, check), uncertainty });
+
+/** The expanded uncertainty of a check's figure, when evaluated in the verdict's own unit. */
+function expandedOf(report: AnalysisReport, check: string, unit: string): number | null {
+  const u = report.uncertainty?.figures.find((f) => f.check === check);
+  return u && u.status === "evaluated" && u.unit === unit ? u.expandedUncertainty : null;
+}
 
 /** Every judged check with its measured value, limits, verdict, basis and the limit's source; then the checks not required, with why. */
 export function VerdictsTable({ report }: { report: AnalysisReport }) {
@@ -23,7 +30,10 @@ export function VerdictsTable({ report }: { report: AnalysisReport }) {
             <tr key={v.check} className="border-t border-ink-100 align-top">
               <td className="sticky left-0 z-10 bg-white px-3 py-2" data-testid="verdict-cell"><StatusTag status={v.status} /></td>
               <td className="px-3 py-2 font-semibold">{v.label}</td>
-              <td className="whitespace-nowrap px-3 py-2 tabular-nums">{figure(v.measured, v.unit, v.check)}</td>
+              <td className="whitespace-nowrap px-3 py-2 tabular-nums">
+                {figure(v.measured, v.unit, v.check, expandedOf(report, v.check, v.unit))}
+                {expandedOf(report, v.check, v.unit) === null ? <UncertaintyNote report={report} check={v.check} /> : <span className="block text-xs text-ink-600">± U, k = 2</span>}
+              </td>
               <td className="whitespace-nowrap px-3 py-2 tabular-nums">
                 {v.lower === null && v.upper === null ? "—" : `${v.lower === null ? "" : figure(v.lower, v.unit, v.check)} … ${v.upper === null ? "" : figure(v.upper, v.unit, v.check)}`}
               </td>

@@ -86,6 +86,12 @@ export function ProfileForm({ action, ratingId, profile }: Props) {
         <Field label="Plausibility factor, ×" error={e["profile.plausibilityFactor"]} hint="A voltage or Ke this many times off the rated value is flagged.">
           <TextInput name="profile.plausibilityFactor" inputMode="decimal" defaultValue={v("profile.plausibilityFactor", String(profile.plausibilityFactor))} />
         </Field>
+        <Field label="Decision rule" error={e["profile.decisionRule"]} hint="Guarded: voltage, frequency and Ke pass only at least U inside each limit (guard band w = U).">
+          <Select name="profile.decisionRule" defaultValue={v("profile.decisionRule", profile.decisionRule ?? "simple")}>
+            <option value="simple">Simple acceptance</option>
+            <option value="guarded">Guarded acceptance, w = U</option>
+          </Select>
+        </Field>
       </div>
       {CHECK_IDS.map((id) => <CheckFields key={id} id={id} rule={profile.checks[id]} state={state} />)}
       <Field label="Why the profile changes" error={e.reason} hint="Kept with the new version; analyses judged earlier keep the version they used.">

@@ -12,14 +12,15 @@ const ITEMS: Record<string, NavItem> = {
   stations: { href: "/stations", label: "Benches" },
   ratings: { href: "/ratings", label: "Ratings" },
   clients: { href: "/admin/clients", label: "Clients" },
+  instruments: { href: "/admin/instruments", label: "Instruments" },
   people: { href: "/admin/people", label: "People" },
   mailbox: { href: "/admin/mailbox", label: "Outbox" },
 };
 
 const BY_ROLE: Record<Role, (keyof typeof ITEMS)[]> = {
-  admin: ["home", "units", "captures", "upload", "review", "trends", "ratings", "stations", "clients", "people", "mailbox"],
+  admin: ["home", "units", "captures", "upload", "review", "trends", "ratings", "stations", "instruments", "clients", "people", "mailbox"],
   operator: ["home", "upload", "captures", "units", "ratings", "stations"],
-  qa: ["home", "review", "units", "captures", "trends", "ratings"],
+  qa: ["home", "review", "units", "captures", "trends", "ratings", "instruments"],
   manufacturer: ["home", "units"],
 };
 

@@ -1,6 +1,6 @@
 import { and, desc, eq, inArray, lt, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { analyses, captures, ratings, stations, units, users, type Capture, type CaptureState } from "@/db/schema";
+import { analyses, captureInstruments, captures, ratings, stations, units, users, type Capture, type CaptureState } from "@/db/schema";
 import { unitScopeWhere, type Scope } from "./scope";
 
 /** Captures whose unit the scope may see. */
@@ -29,11 +29,13 @@ export async function setCaptureUpload(scope: Scope, captureId: string, upload: 
 
 /** Removes a capture that never got a stored object (a registration or completion that was refused); analysed rows are never touched. */
 export async function deleteUploadingCapture(scope: Scope, captureId: string): Promise<boolean> {
-  const rows = await getDb()
-    .delete(captures)
-    .where(and(eq(captures.id, captureId), eq(captures.state, "uploading"), captureScopeWhere(scope)))
-    .returning({ id: captures.id });
-  return rows.length > 0;
+  return getDb().transaction(async (tx) => {
+    const where = and(eq(captures.id, captureId), eq(captures.state, "uploading"), captureScopeWhere(scope));
+    // The instruments named at registration go with the row.
+    await tx.delete(captureInstruments).where(inArray(captureInstruments.captureId, tx.select({ id: captures.id }).from(captures).where(where)));
+    const rows = await tx.delete(captures).where(where).returning({ id: captures.id });
+    return rows.length > 0;
+  });
 }
 
 /**
@@ -221,14 +223,22 @@ export async function touchUploadingCapture(scope: Scope, captureId: string): Pr
  * pointed at in storage so the caller can clean it. Nothing references such a row (no analysis).
  */
 export async function deleteAbandonedUploads(before: Date, limit = 200) {
-  const stale = getDb()
-    .select({ id: captures.id })
-    .from(captures)
-    .where(and(eq(captures.state, "uploading"), lt(captures.updatedAt, before)))
-    .orderBy(captures.id)
-    .limit(limit);
-  return getDb()
-    .delete(captures)
-    .where(and(inArray(captures.id, stale), eq(captures.state, "uploading"), lt(captures.updatedAt, before)))
-    .returning({ captureId: captures.id, objectKey: captures.objectKey, multipartUploadId: captures.multipartUploadId });
+  return getDb().transaction(async (tx) => {
+    // Locked, so an upload touched meanwhile waits and is then judged on its new time.
+    const stale = await tx
+      .select({ id: captures.id })
+      .from(captures)
+      .where(and(eq(captures.state, "uploading"), lt(captures.updatedAt, before)))
+      .orderBy(captures.id)
+      .limit(limit)
+      .for("update");
+    if (stale.length === 0) return [];
+    const ids = stale.map((r) => r.id);
+    // The instruments named at registration go with the rows.
+    await tx.delete(captureInstruments).where(inArray(captureInstruments.captureId, ids));
+    return tx
+      .delete(captures)
+      .where(and(inArray(captures.id, ids), eq(captures.state, "uploading"), lt(captures.updatedAt, before)))
+      .returning({ captureId: captures.id, objectKey: captures.objectKey, multipartUploadId: captures.multipartUploadId });
+  });
 }

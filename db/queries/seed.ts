@@ -1,7 +1,7 @@
 import { eq, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { labClients, organisations, planSteps, ratings, stations, toleranceProfiles, units, users } from "@/db/schema";
-import { demoOrganisations, demoRatings, demoStations, demoUnits, demoUsers, secondLab } from "@/db/seed-data";
+import { instruments, labClients, organisations, planSteps, ratings, stationInstruments, stations, toleranceProfiles, units, users } from "@/db/schema";
+import { demoInstruments, demoOrganisations, demoRatings, demoStations, demoUnits, demoUsers, secondLab } from "@/db/seed-data";
 import { profileFromPreset, speedWindow } from "@/lib/analysis";
 
 /** Inserts the demo scenario once; a second run changes nothing. Returns false when it was already there. */
@@ -20,7 +20,8 @@ export async function insertDemoScenario(passwordHash: string): Promise<boolean>
     await tx.insert(labClients).values(orgRows.filter((o) => o.kind === "manufacturer").map((o) => ({ labId, clientId: o.id })));
     const userRows = await tx.insert(users).values(demoUsers.map((u) => ({ email: u.email, name: u.name, role: u.role, organisationId: orgId(u.org), passwordHash }))).returning();
     const manager = userRows.find((u) => u.role === "admin");
-    await tx.insert(stations).values(demoStations.map((s) => ({ ...s, labId })));
+    const stationRows = await tx.insert(stations).values(demoStations.map((s) => ({ ...s, labId }))).returning();
+    await insertDemoInstruments(tx, labId, manager?.id ?? null, stationRows.map((s) => s.id));
     for (const r of demoRatings) {
       const [rating] = await tx.insert(ratings).values({ organisationId: orgId(r.org), labId, modelCode: r.modelCode, title: r.title, nameplate: r.nameplate }).returning();
       if (!rating) throw new Error(`seed: rating ${r.modelCode} not stored`);
@@ -43,6 +44,22 @@ export async function insertDemoScenario(passwordHash: string): Promise<boolean>
 }
 
 type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
+
+const dayFromToday = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
+
+/** The instrument register (db/seed-data.ts, demoInstruments), dated from today, and the benches' default sets. */
+async function insertDemoInstruments(tx: Tx, labId: string, createdById: string | null, stationIds: string[]): Promise<void> {
+  for (const d of demoInstruments) {
+    const [row] = await tx.insert(instruments).values({
+      labId, kind: d.kind, make: d.make, model: d.model, serial: d.serial, assetTag: d.assetTag, spec: { ...d.spec },
+      calibratedOn: dayFromToday(-d.calibratedDaysAgo), calibrationDue: dayFromToday(d.dueInDays),
+      calibrationNote: `Certificate ${d.assetTag}-${2026 - (d.calibratedDaysAgo > 365 ? 1 : 0)} (invented calibration house)`, createdById,
+    }).returning();
+    if (!row) throw new Error(`seed: instrument ${d.assetTag} not stored`);
+    const sets = (d.benches as readonly number[]).map((i) => stationIds[i]).filter((id): id is string => Boolean(id));
+    if (sets.length > 0) await tx.insert(stationInstruments).values(sets.map((stationId) => ({ stationId, instrumentId: row.id, channel: "" })));
+  }
+}
 
 /** The second lab of the scenario (db/seed-data.ts, secondLab): people, bench, a shared client, units. */
 async function insertSecondLab(tx: Tx, orgId: (slug: string) => string, passwordHash: string): Promise<void> {

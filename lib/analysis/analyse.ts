@@ -115,8 +115,8 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
   }
   const measured = { channels: analyses.map((analysis) => analysis.report), frequencyHz, threePhase: threePhase?.report ?? null, backEmf };
   const judged = opts.rating && opts.profile
-    ? judgeMeasured({ ...measured, warnings, referenceChannel: reference.id }, { rating: opts.rating, profile: opts.profile, checks: opts.checks, stepName: opts.stepName })
-    : { verdicts: [], warnings };
+    ? judgeMeasured({ ...measured, warnings, referenceChannel: reference.id }, { rating: opts.rating, profile: opts.profile, checks: opts.checks, stepName: opts.stepName, instruments: opts.instruments })
+    : { verdicts: [], warnings, uncertainty: undefined };
   const verdicts = judged.verdicts;
   return {
     analysisVersion: ANALYSIS_VERSION,
@@ -134,6 +134,7 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
     ...(capture.probeScales && capture.probeScales.length > 0 ? { probeScales: capture.probeScales } : {}),
     verdicts,
     overall: overallStatus(verdicts),
+    ...(opts.profile && judged.uncertainty ? { decisionRule: opts.profile.decisionRule, uncertainty: judged.uncertainty } : {}),
   };
 }
 
@@ -142,8 +143,10 @@ export function analyseCapture(capture: ParsedCapture, options: AnalysisOptions 
  * without reading the file: the same verdicts the analysis would have given.
  */
 export function judgeReport(report: AnalysisReport, options: JudgeOptions): AnalysisReport {
-  const { verdicts, warnings } = judgeMeasured(report, options);
-  return { ...report, warnings, verdicts, overall: overallStatus(verdicts) };
+  // The instruments stay those recorded with the report unless the caller gives the capture's current set.
+  const instruments = options.instruments ?? report.uncertainty?.instruments ?? [];
+  const { verdicts, warnings, uncertainty } = judgeMeasured(report, { ...options, instruments });
+  return { ...report, warnings, verdicts, overall: overallStatus(verdicts), decisionRule: options.profile.decisionRule, uncertainty };
 }
 
 function computeBackEmfReport(

@@ -2,6 +2,7 @@ import { z } from "zod";
 import { ratingSchema } from "./rating";
 import { channelRoleSchema } from "./report-schema";
 import { CHECK_IDS, toleranceProfileSchema } from "./tolerance";
+import { uncertaintyInstrumentSchema } from "./uncertainty";
 
 export const analysisOptionsSchema = z.object({
   /** Keyed by column header as written; missing channels take the roles suggested from headers. */
@@ -17,6 +18,8 @@ export const analysisOptionsSchema = z.object({
   /** The plan step's checks (the others are not required for this capture) and its name. */
   checks: z.array(z.enum(CHECK_IDS)).optional(),
   stepName: z.string().optional(),
+  /** The instruments that took the capture, with their accuracy specifications (uncertainty budgets). */
+  instruments: z.array(uncertaintyInstrumentSchema).optional(),
   groupingIec: z.boolean().default(false),
   deviationBasis: z.enum(["average-cycle", "worst-cycle"]).default("average-cycle"),
   /** Magnet temperature during a back-EMF test, to state Ke at a reference temperature. */

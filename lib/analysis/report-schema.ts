@@ -1,5 +1,7 @@
 import { z } from "zod";
+import { DECISION_RULES } from "./decision-rule";
 import { CHANNEL_ROLES } from "./types";
+import { uncertaintySectionSchema } from "./uncertainty";
 
 /** Numbers in a report are always finite: "not computable" is null plus a warning. */
 const finite = z.number();
@@ -123,6 +125,8 @@ export const verdictSchema = z.object({
   basis: z.string(),
   /** The limit's source in words ("IEC 60034-1, zone A … — source not verified"). */
   source: z.string(),
+  /** Expanded uncertainty (k = 2) in `unit` where evaluated, else null; absent before engine 2.2.0. */
+  expandedUncertainty: maybe.optional(),
 });
 
 export const analysisReportSchema = z.object({
@@ -148,6 +152,10 @@ export const analysisReportSchema = z.object({
   probeScales: z.array(probeScaleSchema).optional(),
   verdicts: z.array(verdictSchema),
   overall: verdictStatusSchema,
+  /** The profile's decision rule the verdicts follow (absent before engine 2.2.0: simple acceptance). */
+  decisionRule: z.enum(DECISION_RULES).optional(),
+  /** Type B budgets of voltage, frequency and Ke from the capture's instruments (engine 2.2.0 on). */
+  uncertainty: uncertaintySectionSchema.optional(),
 });
 
 export type AnalysisReport = z.infer<typeof analysisReportSchema>;

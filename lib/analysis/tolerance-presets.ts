@@ -116,6 +116,7 @@ export function profileFromPreset(id: PresetId, rating: Rating): ToleranceProfil
     marginalZonePercent: 10,
     harmonicOrder: 50,
     plausibilityFactor: 3,
+    decisionRule: "simple",
     checks: applyNameplate(rating, applyPreset(id, rating, labOwn(rating))),
   };
 }

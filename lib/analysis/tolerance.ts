@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { decisionRuleSchema } from "./decision-rule";
 
 /** Every check a capture can be judged on, in the order reports list them. */
 export const CHECK_IDS = [
@@ -88,6 +89,11 @@ export const toleranceProfileSchema = z.object({
   harmonicOrder: z.number().int().min(2).max(200).default(50),
   /** Measured voltage or Ke this many times off the rated value is implausible (probe ratio, roles, units). */
   plausibilityFactor: z.number().finite().min(1.1, "The plausibility factor must exceed 1.1").max(100).default(3),
+  /**
+   * Profile v2: how U enters the verdict (decision-rule.ts). Profiles stored before it read as
+   * "simple", the rule they were judged by.
+   */
+  decisionRule: decisionRuleSchema.default("simple"),
   checks: checkRulesSchema,
 });
 

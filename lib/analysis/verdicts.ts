@@ -5,6 +5,8 @@ import type { Rating } from "./rating";
 import type { Verdict, VerdictStatus } from "./report-schema";
 import { CHECK_IDS, CHECK_LABELS, describeSource, type CheckId, type ToleranceProfile } from "./tolerance";
 import type { QualityWarning } from "./types";
+import { isGuardedCheck, judgeGuarded } from "./decision-rule";
+import { COVERAGE_STATEMENT, evaluateUncertainty, type UncertaintyInstrument, type UncertaintySection } from "./uncertainty";
 
 export type { Band, Measured } from "./figures";
 
@@ -44,6 +46,8 @@ export type JudgeOptions = {
   /** The plan step's checks; the others are not required for this capture. All when absent. */
   checks?: readonly CheckId[];
   stepName?: string;
+  /** The instruments that took the capture, for the uncertainty budgets; none recorded: "not evaluated". */
+  instruments?: readonly UncertaintyInstrument[];
 };
 
 /**
@@ -75,15 +79,20 @@ function ratingWarnings(measured: Measured, rating: Rating, profile: TolerancePr
  * its band or marked not required with the reason, and the warnings that depend on the rating.
  * `warnings` is the measured list with earlier rating-dependent warnings replaced by this judgement's.
  */
-export function judgeMeasured(measured: Measured, options: JudgeOptions): { verdicts: Verdict[]; warnings: QualityWarning[] } {
+export function judgeMeasured(measured: Measured, options: JudgeOptions): { verdicts: Verdict[]; warnings: QualityWarning[]; uncertainty: UncertaintySection } {
   const { rating, profile } = options;
   const all = figures(measured, rating, profile);
+  const uncertainty = uncertaintyOf(measured, all, options.instruments ?? []);
+  const expanded = (check: CheckId): number | null => {
+    const u = uncertainty.figures.find((f) => f.check === check);
+    return u?.status === "evaluated" ? u.expandedUncertainty : null;
+  };
   const kept = measured.warnings.filter((w) => !(JUDGEMENT_WARNING_CODES as readonly string[]).includes(w.code));
   const warnings = [...kept, ...ratingWarnings(measured, rating, profile, all)];
   const verdicts = CHECK_IDS.map((check): Verdict => {
     const rule = profile.checks[check];
     const figure = all[check];
-    const base = { check, label: CHECK_LABELS[check], measured: figure.value, unit: figure.unit, basis: figure.basis };
+    const base = { check, label: CHECK_LABELS[check], measured: figure.value, unit: figure.unit, basis: figure.basis, expandedUncertainty: expanded(check) };
     if (!rule.required) return { ...base, lower: null, upper: null, status: "not-required", reason: rule.reason, source: "" };
     const source = describeSource(rule.source);
     if (options.checks && !options.checks.includes(check)) {
@@ -98,10 +107,27 @@ export function judgeMeasured(measured: Measured, options: JudgeOptions): { verd
     }
     const band = figure.band as Band;
     const value = typeof figure.value === "number" ? figure.value : null;
+    if (value !== null && Number.isFinite(value) && profile.decisionRule === "guarded" && isGuardedCheck(check)) {
+      return { ...base, ...limits, ...judgeGuarded(value, band, expanded(check)), source };
+    }
     const status = judge(value, band);
     return { ...base, ...limits, status, reason: status === "inconclusive" ? "the figure could not be computed from this capture" : null, source };
   });
-  return { verdicts, warnings };
+  return { verdicts, warnings, uncertainty };
+}
+
+/** Budgets for the figures as judged: voltage and frequency as shown, Ke in the rating's basis. */
+function uncertaintyOf(measured: Measured, all: ReturnType<typeof figures>, instruments: readonly UncertaintyInstrument[]): UncertaintySection {
+  const num = (v: number | string | null) => (typeof v === "number" ? v : null);
+  const be = measured.backEmf;
+  const ke = all["back-emf-constant"];
+  const figuresU = evaluateUncertainty({
+    voltage: { value: num(all.voltage.value), unit: all.voltage.unit, channels: all.voltage.channels },
+    frequency: { value: num(all.frequency.value), unit: all.frequency.unit },
+    // The line voltage behind Ke: Ke_LL,rms per krpm × n / 1000.
+    ke: { value: num(ke.value), unit: ke.unit, voltageV: be ? (be.keLineRmsPerKrpm * be.speedRpm) / 1000 : null, speedRpm: be?.speedRpm ?? null, channels: ke.channels },
+  }, instruments);
+  return { method: "GUM (JCGM 100:2008) type B from the instruments' accuracy specifications, rectangular distributions", coverage: COVERAGE_STATEMENT, instruments: instruments.map((i) => ({ ...i, channel: i.channel ?? "" })), figures: figuresU };
 }
 
 /** Every check in a fixed order, judged with the profile's bands or marked not required with the reason. */

@@ -5,6 +5,7 @@ import { insertAttachmentOnce } from "@/db/queries/attachments";
 import { HttpError } from "@/lib/auth/guards";
 import type { SessionUser } from "@/lib/auth/options";
 import { authorizeAttachmentUpload } from "@/lib/dal/attachments";
+import { authorizeCertificateUpload, certificateUploadInputSchema, recordCertificate } from "@/lib/dal/instrument-certificates";
 import {
   ATTACHMENT_MAX_FILES, ATTACHMENT_MAX_SIZE, attachmentUploadInputSchema, checkAttachmentFiles,
 } from "./rules";
@@ -55,6 +56,21 @@ export function createAttachmentRouter(deps: { currentUser: () => Promise<Sessio
           console.error(`attachment upload: recording stored file ${file.key} for unit ${metadata.unitId} failed:`, err);
           throw err;
         }
+      }),
+    /** A calibration certificate (PDF) of an instrument in the register; lab managers only. */
+    instrumentCertificate: f({ "application/pdf": { ...perType, maxFileCount: 1 } }, { awaitServerData: true })
+      .input(certificateUploadInputSchema)
+      .middleware(async ({ input }) => {
+        const user = await deps.currentUser();
+        if (!user) throw new UploadThingError({ code: "FORBIDDEN", message: "Sign in first." });
+        const instrument = await authorizeCertificateUpload(user, input.instrumentId).catch((err: unknown) => {
+          throw asUploadError(err);
+        });
+        return { instrumentId: instrument.id, uploadedById: user.id };
+      })
+      .onUploadComplete(async ({ metadata, file }) => {
+        const id = await recordCertificate({ ...metadata, originalName: file.name, contentType: file.type, sizeBytes: file.size, fileKey: file.key, fileHash: file.fileHash });
+        return { certificateId: id };
       }),
   } satisfies FileRouter;
 }

@@ -16,6 +16,8 @@ export function isLabRole(role: Role): boolean {
 
 /** Path prefixes and the roles that may open them; checked in proxy.ts and again by every guard. */
 export const PATH_RULES: ReadonlyArray<{ prefix: string; roles: readonly Role[] }> = [
+  // The instrument register: lab managers keep it, quality engineers read it (checked before "/admin").
+  { prefix: "/admin/instruments", roles: ["admin", "qa"] },
   { prefix: "/admin", roles: ["admin"] },
   { prefix: "/upload", roles: ["admin", "operator"] },
   { prefix: "/review", roles: ["admin", "qa"] },

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { instrumentRefsSchema } from "@/lib/instruments/input-schemas";
 import { CHANNEL_ROLES } from "@/lib/analysis";
 
 // Inputs of the upload flow, shared by the browser form, the session handlers and the bench API.
@@ -39,6 +40,8 @@ export const captureRegistrationSchema = z.object({
   /** Time base for a file without a time column, or with a sample-index column, Hz. */
   sampleRateHz: z.number({ error: "The sample rate is a number of Hz" }).positive("The sample rate must be positive").max(1e10).nullable().optional(),
   stationId: z.uuid().optional(),
+  /** Instrument ids or asset tags that took the capture (optionally { instrument, channel }); absent: the bench's default set. */
+  instruments: instrumentRefsSchema.optional(),
   notes: z.string().max(2000).default(""),
   fileName: z.string().trim().min(1).max(255).regex(CAPTURE_FILE_NAME, "Only CSV exports are accepted (.csv, .txt or .tsv)"),
   sizeBytes: z.number().int().positive("The file is empty"),

@@ -20,6 +20,7 @@ import {
 } from "@/lib/server/storage";
 import type { z } from "zod";
 import { requireUploader, type Actor } from "./actor";
+import { recordRegistrationInstruments, resolveRegistrationInstruments } from "./capture-instruments";
 import { getCaptureStatusView, type CaptureStatusView } from "./captures";
 import { rememberOrApplyProfile } from "./import-profiles";
 import { readJson } from "./request";
@@ -91,6 +92,8 @@ export async function registerCapture(actor: Actor, input: Registration): Promis
   if (input.sizeBytes > limit) throw new HttpError(413, `The file is ${mib(input.sizeBytes)}: the limit is ${mib(limit)}`);
   const stationId = actor.stationId ?? input.stationId ?? null;
   if (input.stationId && !actor.stationId && !(await getStation(scope, input.stationId))) throw new HttpError(422, "Unknown bench for this lab");
+  // Unknown instruments are refused (400, field "instruments") before anything is stored, a new unit included.
+  const instruments = await resolveRegistrationInstruments(scope.labId, input.instruments);
   const unit = await resolveUnit(scope, input);
   const id = randomUUID();
   const { capture, duplicate } = await insertCaptureOnce({
@@ -112,6 +115,7 @@ export async function registerCapture(actor: Actor, input: Registration): Promis
   // A row just inserted whose answer does not reach the client (the store or the database failed
   // half-way) goes again, so the client's retry is a fresh registration, not an "upload in progress".
   try {
+    await recordRegistrationInstruments(capture.id, stationId, instruments);
     const upload = await planUpload(scope, capture);
     const view = await getCaptureStatusView(actor, capture.id);
     if (!view) throw new Error("a capture just stored could not be read back");

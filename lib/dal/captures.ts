@@ -10,6 +10,7 @@ import { presignDownload } from "@/lib/server/storage";
 import { listActivePlanSteps } from "@/db/queries/judgement";
 import { requirePageActor, type Actor } from "./actor";
 import { getCaptureCorrections } from "./capture-corrections";
+import { getCaptureInstruments, type CaptureInstrumentsSummary } from "./capture-instruments";
 
 // One read path for the capture page, the browser's polling handlers and the bench API.
 
@@ -21,6 +22,8 @@ export type CaptureStatusView = {
   channelOffsets: Record<string, number>; magnetTemperatureC: number | null; planStepId: string | null;
   notes: string; originalName: string; sizeBytes: number; sha256: string; stationName: string | null; uploadedBy: string | null;
   createdAt: string; uploadedAt: string | null; analysedAt: string | null;
+  /** The instruments that took it, and a warning per instrument past its due date on the upload day. */
+  instruments: CaptureInstrumentsSummary;
   analysis: null | {
     analysisVersion: string; overall: string | null; frequencyHz: number | null; worstThdPercent: number | null;
     vufPercent: number | null; keLineRmsPerKrpm: number | null; createdAt: string; report: AnalysisReport;
@@ -49,7 +52,10 @@ export async function getCaptureStatusView(actor: Actor, captureId: string): Pro
   if (!found) return null;
   const c = found.capture;
   // A capture queued again for re-analysis keeps showing its current result until the new one lands.
-  const analysis = c.state === "uploading" ? undefined : await getCurrentAnalysis(actor.scope, captureId);
+  const [analysis, instruments] = await Promise.all([
+    c.state === "uploading" ? undefined : getCurrentAnalysis(actor.scope, captureId),
+    getCaptureInstruments(actor, captureId),
+  ]);
   return {
     id: c.id, unitId: c.unitId, serial: found.serial, ratingId: found.ratingId, modelCode: found.modelCode, ratingTitle: found.ratingTitle,
     state: c.state, stateMessage: captureStateMessage(c, getEnv().WORKER_LOCK_MS), progress: c.progress, attempts: c.attempts,
@@ -58,6 +64,7 @@ export async function getCaptureStatusView(actor: Actor, captureId: string): Pro
     notes: c.notes, originalName: c.originalName, sizeBytes: c.sizeBytes, sha256: c.sha256,
     stationName: found.stationName, uploadedBy: found.uploadedBy,
     createdAt: c.createdAt.toISOString(), uploadedAt: c.uploadedAt?.toISOString() ?? null, analysedAt: c.analysedAt?.toISOString() ?? null,
+    instruments: instruments ?? { instruments: [], warnings: [], confirmation: null },
     analysis: analysis
       ? {
           analysisVersion: analysis.analysisVersion, overall: analysis.overall, frequencyHz: analysis.frequencyHz,

@@ -12,6 +12,8 @@ export function diffProfiles(before: ToleranceProfile, after: ToleranceProfile):
   setting("Marginal zone", before.marginalZonePercent, after.marginalZonePercent, " %");
   setting("Highest harmonic order", before.harmonicOrder, after.harmonicOrder, "");
   setting("Plausibility factor", before.plausibilityFactor, after.plausibilityFactor, "×");
+  const rule = (r: string | undefined) => (r === "guarded" ? "guarded acceptance (w = U)" : "simple acceptance");
+  if (rule(before.decisionRule) !== rule(after.decisionRule)) out.push(`Decision rule: ${rule(before.decisionRule)} → ${rule(after.decisionRule)}`);
   for (const id of CHECK_IDS) {
     const a = before.checks[id];
     const b = after.checks[id];

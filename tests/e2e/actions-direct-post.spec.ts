@@ -19,6 +19,7 @@ const ALLOWED: Record<string, readonly Role[]> = {
   // Password links work without a session: the token in the form is the authority.
   "app/(auth)/forgot-password/actions.ts#requestPasswordReset": ["admin", "qa", "operator", "kestrum"],
   "app/(auth)/set-password/actions.ts#setPassword": ["admin", "qa", "operator", "kestrum"],
+  "app/(app)/captures/[id]/instrument-actions.ts#confirmOverdueAction": ["qa"],
 };
 /** Actions of whole files given to the same roles. */
 const ALLOWED_BY_FILE: Record<string, readonly Role[]> = {
@@ -30,6 +31,8 @@ const ALLOWED_BY_FILE: Record<string, readonly Role[]> = {
   "app/(app)/units/[id]/attachment-actions.ts": ["admin", "qa"],
   "app/(app)/units/[id]/record-actions.ts": ["admin", "qa"],
   "app/(app)/stations/profile-actions.ts": ["admin", "operator"],
+  "app/(app)/admin/instruments/actions.ts": ["admin"],
+  "app/(app)/captures/[id]/instrument-actions.ts": ["admin", "qa", "operator"],
 };
 const ROLES: readonly Role[] = ["admin", "qa", "operator", "kestrum"];
 

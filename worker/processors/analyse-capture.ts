@@ -1,6 +1,7 @@
 import { UnrecoverableError, type SandboxedJob } from "bullmq";
 import { isCaptureRejection } from "@/lib/analysis";
 import { recordAnalysis } from "@/db/queries/analyses";
+import { listCaptureInstruments } from "@/db/queries/instruments";
 import { claimCaptureForAnalysis, noteCaptureWaiting, setCaptureProgress, setCaptureState } from "@/db/queries/captures";
 import type { Scope } from "@/db/queries/scope";
 import { getEnv } from "@/lib/server/env";
@@ -48,7 +49,10 @@ export default async function analyseCaptureJob(job: SandboxedJob<AnalysisJobDat
 
   try {
     const judgement = await rideOutages("load the judgement", () => db(() => loadJudgement(claimed.rating, claimed.capture)), ride);
-    const analysis = await rideOutages("read and analyse", () => runAnalysis(claimed.capture, judgement, onProgress), ride);
+    // The instruments' specifications feed the uncertainty budgets (none recorded: "not evaluated").
+    const instruments = (await rideOutages("load the instruments", () => db(() => listCaptureInstruments(captureId)), ride))
+      .map(({ instrument, channel }) => ({ assetTag: instrument.assetTag, kind: instrument.kind, channel, spec: instrument.spec }));
+    const analysis = await rideOutages("read and analyse", () => runAnalysis(claimed.capture, judgement, onProgress, instruments), ride);
     await pending;
     const stored = await rideOutages("store the report", () => db(() => recordAnalysis(scope, analysis)), ride);
     if (stored) await rideOutages("refresh the unit's plan", () => db(() => refreshUnitPlanState(scope, claimed.unit.id)), ride);

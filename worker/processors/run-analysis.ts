@@ -1,7 +1,7 @@
 import { createHash } from "node:crypto";
 import {
   analyseCapture, CaptureRejection, computeWaveformEnvelope, createCaptureParser, ratingSchema, toleranceProfileSchema,
-  type AnalysisReport, type ChannelRole,
+  type AnalysisReport, type ChannelRole, type UncertaintyInstrument,
 } from "@/lib/analysis";
 import type { NewAnalysis } from "@/db/queries/analyses";
 import type { Capture } from "@/db/schema";
@@ -36,7 +36,9 @@ export function worstThd(report: AnalysisReport): number | null {
  * Progress runs 0–80 while reading (the parse happens as bytes arrive), then 90 once analysed.
  * Throws CaptureRejection for input the engine or the integrity check refuses.
  */
-export async function runAnalysis(capture: Capture, judgement: Judgement, onProgress: (percent: number) => void): Promise<NewAnalysis> {
+export async function runAnalysis(
+  capture: Capture, judgement: Judgement, onProgress: (percent: number) => void, instruments: readonly UncertaintyInstrument[] = [],
+): Promise<NewAnalysis> {
   const { rating, step } = judgement;
   const nameplate = ratingSchema.safeParse(rating.nameplate);
   const tolerance = toleranceProfileSchema.safeParse(judgement.profile.profile);
@@ -92,6 +94,7 @@ export async function runAnalysis(capture: Capture, judgement: Judgement, onProg
     checks: step?.checks,
     stepName: step?.name,
     magnetTemperature: magnet,
+    instruments: [...instruments],
   });
   onProgress(90);
   const envelope = computeWaveformEnvelope(parsed, PREVIEW_BUCKETS);

@@ -14,6 +14,8 @@ const TABLE: Record<string, string> = {
   "/ratings": "AOQ",
   "/ratings/0b6c0c3e-3a39-4a43-9f5b-6a1a3b1e2f10": "AOQ",
   "/admin/clients": "A",
+  "/admin/instruments": "AQ",
+  "/admin/instruments/0b6c0c3e-3a39-4a43-9f5b-6a1a3b1e2f10": "AQ",
   "/units": "AOQC",
   "/units/0b6c0c3e-3a39-4a43-9f5b-6a1a3b1e2f10": "AOQC",
   "/captures": "AOQC",

@@ -1,11 +1,14 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { CaptureDetails } from "@/components/captures/capture-details";
+import { CaptureInstruments } from "@/components/captures/capture-instruments";
 import { CaptureLive } from "@/components/captures/capture-live";
+import { UncertaintyBudget } from "@/components/captures/uncertainty-budget";
 import { fmtDate } from "@/components/captures/format";
 import { PageHeader } from "@/components/shell/page-header";
 import { SafetyCaution } from "@/components/shell/safety-caution";
 import { StatusTag } from "@/components/ui/status-tag";
+import { getCaptureInstrumentsPageView } from "@/lib/dal/capture-instruments";
 import { getCapturePageView } from "@/lib/dal/captures";
 
 export const metadata = { title: "Capture" };
@@ -15,6 +18,7 @@ export default async function CapturePage({ params }: { params: Promise<{ id: st
   // Another organisation's capture is indistinguishable from a missing one.
   if (!view) notFound();
   const { capture: c, history } = view;
+  const instruments = await getCaptureInstrumentsPageView(c.id);
   const channels = c.analysis ? c.analysis.report.channels.map((ch) => ch.id) : Object.keys(c.channelRoles);
   return (
     <>
@@ -28,6 +32,8 @@ export default async function CapturePage({ params }: { params: Promise<{ id: st
         initial={c} canReanalyse={view.canReanalyse} correction={view.canCorrect ? { channels, planSteps: view.planSteps } : null}
         details={<CaptureDetails capture={c} />}
       />
+      {instruments ? <CaptureInstruments captureId={c.id} {...instruments} /> : null}
+      {c.analysis ? <UncertaintyBudget report={c.analysis.report} /> : null}
       {view.corrections.length > 0 ? (
         <section className="mt-8" aria-labelledby="corrections">
           <h2 id="corrections" className="mb-2 text-lg font-semibold">Corrections</h2>

@@ -14,7 +14,7 @@ export function ProfileSection({ ratingId, inForce, versions, canEdit }: { ratin
       <h2 className="mb-1 text-lg font-semibold">Tolerance profile {inForce ? `— version ${inForce.version} in force` : ""}</h2>
       {!inForce ? <p className="text-sm text-ink-600">No profile: captures of this rating cannot be judged.</p> : (
         <>
-          <p className="mb-3 text-sm text-ink-600">{inForce.profile?.label} · marginal zone {inForce.profile?.marginalZonePercent} % · harmonics to order {inForce.profile?.harmonicOrder} · plausibility factor {inForce.profile?.plausibilityFactor}×</p>
+          <p className="mb-3 text-sm text-ink-600">{inForce.profile?.label} · marginal zone {inForce.profile?.marginalZonePercent} % · harmonics to order {inForce.profile?.harmonicOrder} · plausibility factor {inForce.profile?.plausibilityFactor}× · {inForce.profile?.decisionRule === "guarded" ? "guarded acceptance (w = U)" : "simple acceptance"}</p>
           <table className="min-w-full bg-white text-sm shadow-sm ring-1 ring-ink-200" aria-label="Profile in force">
             <thead className="text-left text-xs uppercase tracking-wide text-ink-600"><tr><th className="px-3 py-2">Check</th><th className="px-3 py-2">Band</th><th className="px-3 py-2">Source</th></tr></thead>
             <tbody>

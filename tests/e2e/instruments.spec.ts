@@ -1,0 +1,63 @@
+import { expect, test } from "@playwright/test";
+import { DEMO_PASSWORD, signIn } from "./support";
+
+// Relies on the demo scenario: the register (db/seed-data.ts) and the PX-120 captures spun with the
+// overdue tachometer HG-TAC-11, which the test command pushes through the pipeline.
+test.setTimeout(180_000);
+const run = `${Date.now() % 1_000_000}`;
+
+test("a lab manager adds an instrument; a due date before the calibration date is refused beside its field", async ({ page }) => {
+  await signIn(page, "admin");
+  await page.goto("/admin/instruments");
+  await expect(page.getByRole("table", { name: "Instrument register" }).getByText("HG-TAC-11")).toBeVisible();
+  const form = page.getByRole("form", { name: "New instrument" });
+  await form.getByLabel("Kind").selectOption("tachometer");
+  await form.getByLabel("Make").fill("Quillon");
+  await form.getByLabel("Model").fill("OT-90");
+  await form.getByLabel("Serial").fill(`E2E-${run}`);
+  await form.getByLabel("Asset tag").fill(`E2E-TAC-${run}`);
+  await form.getByLabel("Speed-reading accuracy, ± % of reading").fill("0.02");
+  await form.getByLabel("Calibration date").fill("2026-06-01");
+  await form.getByLabel("Calibration due").fill("2026-05-01");
+  await form.getByRole("button", { name: "Add instrument" }).click();
+  await expect(page.getByText("The due date cannot be before the calibration date")).toBeVisible();
+  await page.getByRole("form", { name: "New instrument" }).getByLabel("Calibration due").fill("2027-06-01");
+  await page.getByRole("form", { name: "New instrument" }).getByRole("button", { name: "Add instrument" }).click();
+  await expect(page.getByText(`E2E-TAC-${run} added to the register.`)).toBeVisible();
+  await expect(page.getByRole("table", { name: "Instrument register" }).getByText(`E2E-TAC-${run}`)).toBeVisible();
+});
+
+test("a quality engineer reads the register but cannot change it", async ({ page }) => {
+  await signIn(page, "qa");
+  await page.goto("/admin/instruments");
+  await expect(page.getByRole("table", { name: "Instrument register" }).getByText("HG-OSC-07")).toBeVisible();
+  await expect(page.getByRole("form", { name: "New instrument" })).toHaveCount(0);
+});
+
+test("an operator is refused the instrument register (403 in place)", async ({ page }) => {
+  await signIn(page, "operator");
+  const response = await page.goto("/admin/instruments");
+  expect(response?.status()).toBe(403);
+});
+
+test("a capture taken with an overdue tachometer warns, shows its uncertainty budget, and a quality engineer confirms it", async ({ page }) => {
+  await signIn(page, "qa");
+  await expect(async () => {
+    await page.goto("/units?q=PX120-B1022");
+    await page.getByRole("link", { name: "PX120-B1022" }).click({ timeout: 2000 });
+    // A unit spun with the overdue tachometer (db/seed-data.ts, overdueInstrumentUnits).
+    await page.getByRole("link", { name: /PX120-B1022-back-emf/ }).first().click({ timeout: 2000 });
+    await expect(page.getByRole("heading", { name: "Measurement uncertainty" })).toBeVisible({ timeout: 2000 });
+  }).toPass({ timeout: 120_000 });
+  const warning = page.getByRole("alert", { name: "Overdue instrument" });
+  await expect(warning).toContainText("HG-TAC-11");
+  await page.getByText("Show the budget").first().click();
+  await expect(page.getByRole("table", { name: /Uncertainty budget/ }).first()).toContainText("rectangular");
+  const confirm = page.getByRole("form", { name: "Confirm overdue instrument" });
+  await confirm.getByLabel("Why the capture may still be reported").fill("Speed cross-checked against the drive encoder on the day.");
+  await confirm.getByLabel("Your password (signature)").fill(DEMO_PASSWORD);
+  await confirm.getByRole("button", { name: "Confirm and sign" }).click();
+  // The confirmation replaces the form in the warning.
+  await expect(warning.getByText(/^Confirmed \d{4}-\d{2}-\d{2}: /)).toContainText("drive encoder");
+  await expect(page.getByRole("form", { name: "Confirm overdue instrument" })).toHaveCount(0);
+});
