@@ -25,3 +25,4 @@ export { MAGNET_COEFFICIENTS_PERCENT_PER_K, computeBackEmf, keAtReferenceTempera
 export { computeThf, computeTif } from "./telephone";
 export { BODY_HEAD_BYTES, BodyRangeFallback, createBodyRangeParser, joinBodyRanges, prepareBodyLayout, type BodyRangeLayout, type BodyRangeParser, type BodyRangeSummary, type PreparedBody } from "./body-range";
 export * from "./plan-evaluation";
+export * from "./spc";
