@@ -17,7 +17,9 @@ export const checkOfFigure = (figure: TrendFigure): CheckId => (figure === HARMO
 
 const blankToUndefined = (v: unknown) => (v === "" || v === null ? undefined : v);
 const day = (what: string) => z.preprocess(blankToUndefined, z.string().regex(/^\d{4}-\d{2}-\d{2}$/, `${what} must be a date written YYYY-MM-DD`)
-  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), `${what} is not a calendar date`).optional());
+  // A calendar day (no 30 February rolled into March) within a range the database and the export can write.
+  .refine((s) => { const t = Date.parse(`${s}T00:00:00Z`); return Number.isFinite(t) && new Date(t).toISOString().slice(0, 10) === s && s >= "1970-01-01" && s <= "2999-12-31"; },
+    `${what} is not a calendar date between 1970 and 2999`).optional());
 const id = (what: string) => z.preprocess(blankToUndefined, z.uuid(`${what} is not a known id`).optional());
 
 /** The trends page's URL (and its CSV export's): shared so a filtered view can be bookmarked and exported. */
