@@ -47,14 +47,15 @@ export function TrendChart({ label, unit, points, band, limits, byDate }: { labe
       },
     };
     const line = (name: string, stroke: string, dash?: number[]): uPlot.Series => ({ label: name, stroke, width: 1.25, dash, points: { show: false } });
-    const dots = (name: string, stroke: string, fill: string, size: number): uPlot.Series => ({ label: name, stroke, fill, width: 0, points: { show: true, size, stroke, fill, width: 1.5 } });
+    // Points only: no line between units and no area under them (a series fill would shade to the axis).
+    const dots = (name: string, stroke: string, fill: string, size: number): uPlot.Series => ({ label: name, stroke, width: 0, points: { show: true, size, stroke, fill, width: 1.5 } });
     const options: uPlot.Options = {
       width,
       height: 320,
       plugins: [shade],
       scales: { x: { time: byDate }, y: { range: () => [range.min, range.max] } },
       axes: [
-        byDate ? { label: "date measured" } : { label: "unit, by serial", values: (_u, ticks) => ticks.map((t) => (Number.isInteger(t) ? points[t - 1]?.serial ?? "" : "")) },
+        byDate ? { label: "date measured", space: 90 } : { label: "unit, by serial", space: 110, values: (_u, ticks) => ticks.map((t) => (Number.isInteger(t) ? points[t - 1]?.serial ?? "" : "")) },
         { label: unit ? `${label} (${unit})` : label, size: 80, values: (_u, ticks, _a, _s, step) => ticks.map((t) => formatTick(t, step)) },
       ],
       series: [

@@ -8,12 +8,12 @@ export function TrendPoints({ points, unit }: { points: TrendPoint[]; unit: stri
   return (
     <table className="mt-3 w-full text-left text-sm" aria-label="Plotted points" data-testid="trend-points">
       <thead className="text-xs uppercase text-ink-600">
-        <tr><th className="py-1">Serial</th><th>Measured</th><th className="text-right">Value{unit ? ` (${unit})` : ""}</th><th>In statistics</th><th>Verdict</th><th>Run rules</th><th>Bench</th></tr>
+        <tr className="[&>th]:px-2 [&>th]:py-1"><th>Serial</th><th>Measured</th><th className="text-right">Value{unit ? ` (${unit})` : ""}</th><th>In statistics</th><th>Verdict</th><th>Run rules</th><th>Bench</th></tr>
       </thead>
       <tbody>
         {points.map((p) => (
-          <tr key={p.unitId} className="border-t border-ink-100" data-serial={p.serial} data-value={p.value} data-flagged={p.flagged ? "yes" : "no"}>
-            <td className="py-1"><Link href={`/captures/${p.captureId}`}>{p.serial}</Link></td>
+          <tr key={p.unitId} className="border-t border-ink-100 [&>td]:px-2 [&>td]:py-1" data-serial={p.serial} data-value={p.value} data-flagged={p.flagged ? "yes" : "no"}>
+            <td><Link href={`/captures/${p.captureId}`}>{p.serial}</Link></td>
             <td>{p.measuredAt.slice(0, 10)}</td>
             <td className="text-right tabular-nums">{String(Number(p.value.toPrecision(7)))}</td>
             <td>{p.flagged ? "no, flagged" : "yes"}</td>
