@@ -55,9 +55,9 @@ export const demoRatings: ReadonlyArray<{ org: string; modelCode: string; title:
   },
 ];
 
-/** 26 units: serials follow each maker's invented scheme. */
+/** 44 units: serials follow each maker's invented scheme; KG-45T's 28 give its trends enough points for capability. */
 export const demoUnits: ReadonlyArray<{ serial: string; modelCode: string }> = [
-  ...Array.from({ length: 10 }, (_, i) => ({ serial: `KG45-26${String(301 + i).padStart(4, "0")}`, modelCode: "KG-45T" })),
+  ...Array.from({ length: 28 }, (_, i) => ({ serial: `KG45-26${String(301 + i).padStart(4, "0")}`, modelCode: "KG-45T" })),
   ...Array.from({ length: 5 }, (_, i) => ({ serial: `KG60-26${String(41 + i).padStart(4, "0")}`, modelCode: "KG-60T6" })),
   ...Array.from({ length: 3 }, (_, i) => ({ serial: `KS8-2611${String(7 + i).padStart(2, "0")}`, modelCode: "KS-8" })),
   ...Array.from({ length: 8 }, (_, i) => ({ serial: `PX120-B${String(1021 + i)}`, modelCode: "PX-120" })),

@@ -1,6 +1,7 @@
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, captures, planSteps, toleranceProfiles, units, type Analysis } from "@/db/schema";
+import { writeFigureRows } from "./analysis-figures";
 import { captureScopeWhere } from "./captures";
 import { unitScopeWhere, type Scope } from "./scope";
 
@@ -22,7 +23,8 @@ export async function recordAnalysis(scope: Scope, input: NewAnalysis): Promise<
     const capture = moved[0];
     if (!capture) return false;
     await tx.update(analyses).set({ current: false }).where(and(eq(analyses.captureId, input.captureId), eq(analyses.current, true)));
-    await tx.insert(analyses).values({ ...input, current: true });
+    const [stored] = await tx.insert(analyses).values({ ...input, current: true }).returning({ id: analyses.id });
+    if (stored) await writeFigureRows(tx, stored.id, input.captureId, input.report);
     await tx
       .update(units)
       .set({ latestOverall: input.overall ?? null, latestCaptureAt: capture.createdAt })
@@ -78,7 +80,8 @@ export async function recordRejudgement(scope: Scope, input: NewAnalysis): Promi
       .where(and(eq(captures.id, input.captureId), eq(captures.state, "analysed"), captureScopeWhere(scope))).for("update");
     if (!capture) return false;
     await tx.update(analyses).set({ current: false }).where(and(eq(analyses.captureId, input.captureId), eq(analyses.current, true)));
-    await tx.insert(analyses).values({ ...input, current: true, kind: "rejudge" });
+    const [stored] = await tx.insert(analyses).values({ ...input, current: true, kind: "rejudge" }).returning({ id: analyses.id });
+    if (stored) await writeFigureRows(tx, stored.id, input.captureId, input.report);
     await tx.update(units).set({ latestOverall: input.overall ?? null }).where(
       and(eq(units.id, capture.unitId), unitScopeWhere(scope), sql`${units.latestCaptureAt} = ${capture.createdAt.toISOString()}`),
     );

@@ -28,3 +28,4 @@ export * from "./plan-evaluation";
 export * from "./uncertainty";
 export * from "./decision-rule";
 export type { Band } from "./figures";
+export * from "./spc";

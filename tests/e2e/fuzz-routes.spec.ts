@@ -27,7 +27,7 @@ const BODIES: { type: string; body: string }[] = [
 const GET_ROUTES = [
   "/api/captures", "/api/captures/:x", "/api/captures/:x/plot", "/api/captures/:x/raw", "/api/units/:x", "/api/units/:x/report.csv", "/api/units/:x/report.pdf",
   "/api/attachments/:x", "/api/v1/captures", "/api/v1/captures/:x", "/api/v1/units/:x", "/api/v1/openapi.json", "/api/health", "/api/uploadthing",
-  "/", "/units", "/units/:x", "/captures", "/captures/:x", "/review", "/trends", "/stations", "/upload", "/admin/people", "/admin/mailbox", "/account",
+  "/", "/units", "/units/:x", "/captures", "/captures/:x", "/review", "/trends", "/trends/export", "/stations", "/upload", "/admin/people", "/admin/mailbox", "/account",
   "/sign-in", "/forgot-password", "/set-password", "/:x",
 ];
 const POST_ROUTES = [
