@@ -67,7 +67,7 @@ if (secret.length < 16) {
   process.exit(2);
 }
 
-function secretMatches(user: string | undefined, password: string | undefined): boolean {
+function secretMatches(user: string | null | undefined, password: string | null | undefined): boolean {
   const given = Buffer.from(password ?? "");
   return user === SMTP_USER && given.length === secret.length && timingSafeEqual(given, secret);
 }
