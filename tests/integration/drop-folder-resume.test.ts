@@ -32,7 +32,7 @@ let fault: (what: "api" | "store", method: string, pathname: string) => Fault = 
 let viaStoreProxy = false;
 const seen: { what: string; method: string; pathname: string; at: number; status: number }[] = [];
 
-async function route(req: http.IncomingMessage, body: Buffer): Promise<Response> {
+async function route(req: http.IncomingMessage, body: Uint8Array<ArrayBuffer>): Promise<Response> {
   const url = new URL(req.url ?? "/", base);
   const injected = fault("api", req.method ?? "", url.pathname);
   if (injected) return Response.json({ error: "The server is busy" }, { status: injected.status, headers: { "Retry-After": injected.retryAfter } });

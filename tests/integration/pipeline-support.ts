@@ -65,7 +65,7 @@ export async function registerViaApi(token: string, csv: string, meta: Record<st
 }
 
 /** A part URL bound to the part's bytes (their sha256), as the bench API issues it; `sha256Hex` defaults to that of `body`. */
-export async function partUrlViaApi(token: string, id: string, partNumber: number, body: Buffer, sha256Hex?: string) {
+export async function partUrlViaApi(token: string, id: string, partNumber: number, body: Uint8Array<ArrayBuffer>, sha256Hex?: string) {
   const sum = sha256Hex ?? createHash("sha256").update(body).digest("hex");
   const res = await partsRoute(jsonRequest(`http://test/api/v1/captures/${id}/parts`, token, { parts: [{ partNumber, sha256: sum }] }), { params: Promise.resolve({ id }) });
   const json = (await res.json()) as { parts?: { partNumber: number; url: string; headers: Record<string, string> }[]; error?: string };
@@ -75,7 +75,7 @@ export async function partUrlViaApi(token: string, id: string, partNumber: numbe
 }
 
 /** PUTs one part through a bound URL; returns what completion needs. */
-export async function putPartViaApi(token: string, id: string, partNumber: number, body: Buffer) {
+export async function putPartViaApi(token: string, id: string, partNumber: number, body: Uint8Array<ArrayBuffer>) {
   const part = await partUrlViaApi(token, id, partNumber, body);
   const put = await fetch(part.url, { method: "PUT", headers: part.headers, body });
   if (!put.ok) throw new Error(`PUT part ${partNumber} failed: ${put.status} ${await put.text()}`);
