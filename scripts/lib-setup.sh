@@ -26,6 +26,15 @@ ensure_dotenv() {
       step "adding the uploadthing settings (attachments) to .env"
       { echo "# Attachments: the local uploadthing fake (scripts/services.sh)."; bash scripts/services.sh env | grep -E '^UPLOADTHING_'; } >>.env
     fi
+    # The local store checks signatures and the mail fake requires its password (secrets under .data/).
+    if grep -q '^S3_SECRET_ACCESS_KEY=S3RVER$' .env; then
+      step "setting the local object store's secret in .env"
+      sed -i "s/^S3_SECRET_ACCESS_KEY=S3RVER$/S3_SECRET_ACCESS_KEY=$(bash scripts/services.sh env | sed -n 's/^S3_SECRET_ACCESS_KEY=//p')/" .env
+    fi
+    if ! grep -q '^SMTP_PASSWORD=' .env; then
+      step "adding the mail fake's credentials to .env"
+      bash scripts/services.sh env | grep -E '^SMTP_(USER|PASSWORD)=' >>.env
+    fi
     return
   fi
   step "writing .env for the local demo"
@@ -51,7 +60,7 @@ load_env_file() {
 write_test_env() {
   {
     bash scripts/services.sh env | sed -nE 's/^TEST_(DATABASE_URL|REDIS_URL)=/\1=/p; s/^TEST_S3_BUCKET=/S3_BUCKET=/p'
-    bash scripts/services.sh env | grep -E '^(S3_ENDPOINT|S3_REGION|S3_ACCESS_KEY_ID|S3_SECRET_ACCESS_KEY|S3_FORCE_PATH_STYLE|SMTP_HOST|SMTP_PORT|UPLOADTHING_(INGEST_URL|API_URL|UFS_HOST|UFS_APP_ID_LOCATION))='
+    bash scripts/services.sh env | grep -E '^(S3_ENDPOINT|S3_REGION|S3_ACCESS_KEY_ID|S3_SECRET_ACCESS_KEY|S3_FORCE_PATH_STYLE|SMTP_HOST|SMTP_PORT|SMTP_USER|SMTP_PASSWORD|UPLOADTHING_(INGEST_URL|API_URL|UFS_HOST|UFS_APP_ID_LOCATION))='
     bash scripts/services.sh env | sed -nE 's/^TEST_UPLOADTHING_TOKEN=/UPLOADTHING_TOKEN=/p'
     echo "MAIL_DIR=.data/mail"
     echo "QUEUE_PREFIX=$2"

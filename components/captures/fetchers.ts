@@ -1,4 +1,4 @@
-import type { CaptureCorrection, CaptureRegistration, UploadPlan } from "@/lib/captures/input-schemas";
+import type { CaptureCorrection, CaptureRegistration, PartUrl, UploadPlan } from "@/lib/captures/input-schemas";
 import type { CaptureStatusView, SpectrumView, WaveformPreview } from "@/lib/dal/captures";
 
 // Typed fetchers for the session handlers under /api/captures. Errors carry the server's message.
@@ -29,10 +29,10 @@ export const captureKeys = {
 export const fetchCaptureStatus = (id: string) => call<CaptureStatusView>(`/api/captures/${id}`);
 export const fetchCapturePlot = (id: string) => call<{ preview: WaveformPreview; spectrum: SpectrumView }>(`/api/captures/${id}/plot`);
 export const postRegistration = (input: CaptureRegistration) => call<Registered>("/api/captures", { method: "POST", body: JSON.stringify(input) });
-export const postComplete = (id: string, parts?: { partNumber: number; etag: string }[]) =>
+export const postComplete = (id: string, parts?: { partNumber: number; etag: string; sha256?: string }[]) =>
   call<CaptureStatusView>(`/api/captures/${id}/complete`, { method: "POST", body: JSON.stringify({ parts }) });
-export const postPresignParts = (id: string, partNumbers: number[]) =>
-  call<{ parts: { partNumber: number; url: string }[] }>(`/api/captures/${id}/parts`, { method: "POST", body: JSON.stringify({ partNumbers }) });
+export const postPresignParts = (id: string, parts: { partNumber: number; sha256: string }[]) =>
+  call<{ parts: PartUrl[] }>(`/api/captures/${id}/parts`, { method: "POST", body: JSON.stringify({ parts }) });
 
 export const postReanalyse = (id: string) => call<{ queued: number }>(`/api/captures/${id}/reanalyse`, { method: "POST", body: "{}" });
 

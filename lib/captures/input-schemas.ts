@@ -50,17 +50,26 @@ export const captureRegistrationSchema = z.object({
 
 export type CaptureRegistration = z.input<typeof captureRegistrationSchema>;
 
+const partNumber = z.number({ error: "partNumber is a whole number from 1" }).int("partNumber is a whole number from 1").min(1, "partNumber is a whole number from 1").max(10_000, "At most 10 000 parts");
+const partSha256 = z.string({ error: "sha256 of the part is required" }).regex(/^[0-9a-f]{64}$/, "A part's sha256 must be 64 lower-case hex digits");
+
 export const completeUploadSchema = z.object({
-  parts: z.array(z.object({ partNumber: z.number().int().min(1).max(10_000), etag: z.string().min(1).max(200) })).max(10_000).optional(),
+  /** Each part's ETag as the store answered it, and the sha256 the part was sent with. */
+  parts: z.array(z.object({ partNumber, etag: z.string().min(1, "etag is required").max(200), sha256: partSha256.optional() })).max(10_000).optional(),
 });
 
+/** Part URLs are issued for parts whose sha256 the client computed: each URL carries it and the part's length. */
 export const presignPartsSchema = z.object({
-  partNumbers: z.array(z.number().int().min(1).max(10_000)).min(1).max(200),
+  parts: z.array(z.object({ partNumber, sha256: partSha256 }), { error: "parts is a list of { partNumber, sha256 }" })
+    .min(1, "Ask for at least one part").max(200, "Ask for at most 200 parts at a time"),
 });
 
 export type UploadPlan =
   | { kind: "single"; method: "PUT"; url: string; headers: Record<string, string>; expiresInS: number }
-  | { kind: "multipart"; partSize: number; parts: { partNumber: number; url: string }[]; expiresInS: number };
+  | { kind: "multipart"; partSize: number; partCount: number; expiresInS: number };
+
+/** A part URL and the headers to send with it (the part's checksum, bound by the signature). */
+export type PartUrl = { partNumber: number; url: string; headers: Record<string, string> };
 
 /** Offsets added after scaling, in volts or amps, per column header. */
 export const channelOffsetsSchema = z

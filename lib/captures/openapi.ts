@@ -85,7 +85,7 @@ export function buildOpenApiDocument(serverUrl: string) {
         },
       },
       "/api/v1/captures/{id}/parts": {
-        post: { summary: "Fresh URLs for parts of a multipart upload", parameters: [idParam], requestBody: body("PresignParts"), responses: { "200": { description: "Part URLs" }, ...errors(400, 401, 404, 409) } },
+        post: { summary: "URLs for parts of a multipart upload, each bound to the part's length and the sha256 sent for it", parameters: [idParam], requestBody: body("PresignParts"), responses: { "200": { description: "Part URLs, each with the headers to send (x-amz-checksum-sha256)" }, ...errors(400, 401, 404, 409) } },
       },
       "/api/v1/captures/{id}": {
         get: { summary: "State, progress and (once analysed) the report", parameters: [idParam], responses: { "200": ok("The capture", "CaptureStatus"), ...errors(401, 404) } },
@@ -119,7 +119,7 @@ export function buildOpenApiDocument(serverUrl: string) {
             capture: { $ref: "#/components/schemas/CaptureStatus" }, duplicate: { type: "boolean" },
             upload: { description: "null when nothing is left to upload", oneOf: [{ type: "null" }, { type: "object", properties: {
               kind: { enum: ["single", "multipart"] }, method: { const: "PUT" }, url: { type: "string" }, headers: { type: "object" },
-              partSize: { type: "integer" }, parts: { type: "array", items: { type: "object", properties: { partNumber: { type: "integer" }, url: { type: "string" } } } },
+              partSize: { type: "integer" }, partCount: { type: "integer", description: "multipart: ask the parts endpoint for each part's URL with the part's sha256" },
               expiresInS: { type: "integer" },
             } }] },
           },

@@ -10,13 +10,13 @@ import { similarSerials } from "@/lib/units/similar-serials";
 import type { Capture } from "@/db/schema";
 import { CaptureRejection, sniffCaptureBytes, type SniffedHeader } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
-import { captureRegistrationSchema, type completeUploadSchema, type UploadPlan } from "@/lib/captures/input-schemas";
+import { captureRegistrationSchema, type completeUploadSchema, type PartUrl, type UploadPlan } from "@/lib/captures/input-schemas";
 import { getEnv } from "@/lib/server/env";
 import { isConnectionFailure } from "@/lib/server/outage";
 import { enqueueAnalysisOrLater } from "@/lib/server/queue";
 import {
   abortMultipartUpload, captureObjectKey, completeMultipartUpload, createMultipartUpload, deleteIncompleteObject, headObject, MULTIPART_THRESHOLD_BYTES,
-  partCountFor, partSizeFor, presignParts, presignSinglePut, readObjectHead, UPLOAD_URL_TTL_S,
+  partCountFor, partSizeFor, presignParts, presignSinglePut, readObjectHead, sha256Base64, UPLOAD_URL_TTL_S,
 } from "@/lib/server/storage";
 import type { z } from "zod";
 import { requireUploader, type Actor } from "./actor";
@@ -53,13 +53,13 @@ async function resolveUnit(scope: Actor["scope"] & { kind: "lab" }, input: Regis
 async function planUpload(scope: Actor["scope"], capture: Capture): Promise<UploadPlan> {
   if (capture.sizeBytes <= MULTIPART_THRESHOLD_BYTES) {
     await setCaptureUpload(scope, capture.id, { objectKey: capture.objectKey, multipartUploadId: null });
-    const url = await presignSinglePut(capture.objectKey, capture.sizeBytes);
-    return { kind: "single", method: "PUT", url, headers: { "Content-Type": "text/csv" }, expiresInS: UPLOAD_URL_TTL_S };
+    const { url, headers } = await presignSinglePut(capture.objectKey, capture.sizeBytes, capture.sha256);
+    return { kind: "single", method: "PUT", url, headers, expiresInS: UPLOAD_URL_TTL_S };
   }
   const uploadId = await createMultipartUpload(capture.objectKey);
   await setCaptureUpload(scope, capture.id, { objectKey: capture.objectKey, multipartUploadId: uploadId });
-  const numbers = Array.from({ length: partCountFor(capture.sizeBytes) }, (_, i) => i + 1);
-  return { kind: "multipart", partSize: partSizeFor(capture.sizeBytes), parts: await presignParts(capture.objectKey, uploadId, numbers), expiresInS: UPLOAD_URL_TTL_S };
+  // Part URLs follow from the parts endpoint, once the client has each part's sha256 to bind them to.
+  return { kind: "multipart", partSize: partSizeFor(capture.sizeBytes), partCount: partCountFor(capture.sizeBytes), expiresInS: UPLOAD_URL_TTL_S };
 }
 
 /**
@@ -139,16 +139,20 @@ async function takeOverUpload(scope: Actor["scope"], capture: Capture, sizeBytes
   return planUpload(scope, taken.capture);
 }
 
-export async function presignCaptureParts(actor: Actor, captureId: string, partNumbers: number[]) {
+/** Part URLs, each bound to its part's length and the sha256 the client computed for it. */
+export async function presignCaptureParts(actor: Actor, captureId: string, parts: { partNumber: number; sha256: string }[]): Promise<PartUrl[]> {
   const scope = requireUploader(actor);
   const found = await getCaptureDetail(scope, captureId);
   if (!found) throw new HttpError(404, "No such capture");
   const { capture } = found;
   if (capture.state !== "uploading" || !capture.multipartUploadId) throw new HttpError(409, "This capture is not awaiting a multipart upload");
   const count = partCountFor(capture.sizeBytes);
-  if (partNumbers.some((n) => n > count)) throw new HttpError(400, `This upload has ${count} parts`);
+  if (parts.some((p) => p.partNumber > count)) throw new HttpError(400, `This upload has ${count} parts`);
   await touchUploadingCapture(scope, capture.id);
-  return presignParts(capture.objectKey, capture.multipartUploadId, partNumbers);
+  const partSize = partSizeFor(capture.sizeBytes);
+  return presignParts(capture.objectKey, capture.multipartUploadId, parts.map((p) => ({
+    partNumber: p.partNumber, sizeBytes: Math.min(partSize, capture.sizeBytes - (p.partNumber - 1) * partSize), sha256Base64: sha256Base64(p.sha256),
+  })));
 }
 
 /**
@@ -177,7 +181,7 @@ export async function completeCaptureUpload(actor: Actor, captureId: string, inp
       const expected = partCountFor(capture.sizeBytes);
       if (!input.parts || input.parts.length !== expected) throw new HttpError(400, `Send the ETag of each of the ${expected} parts`);
       try {
-        await completeMultipartUpload(capture.objectKey, capture.multipartUploadId, input.parts);
+        await completeMultipartUpload(capture.objectKey, capture.multipartUploadId, input.parts.map((p) => ({ ...p, sha256: p.sha256 ? sha256Base64(p.sha256) : undefined })));
       } catch (err) {
         if (isConnectionFailure(err)) throw err;
         // The store's code names the problem (InvalidPart, NoSuchUpload...); its message may name hosts.

@@ -6,7 +6,7 @@ import type { AnalysisReport } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
 import { requireUser } from "@/lib/auth/guards";
 import { getEnv } from "@/lib/server/env";
-import { presignDownload } from "@/lib/server/storage";
+import { presignVerifiedDownload } from "@/lib/server/storage";
 import { listActivePlanSteps } from "@/db/queries/judgement";
 import { requirePageActor, type Actor } from "./actor";
 import { getCaptureCorrections } from "./capture-corrections";
@@ -90,12 +90,15 @@ async function getCaptureHistory(actor: Actor, captureId: string) {
   return listAnalysisHistory(actor.scope, captureId);
 }
 
-/** A short-lived signed link to the raw file, for people (and keys) who may read the capture. */
+/** A short-lived signed link to the raw file, for people (and keys) who may read the capture; only the object verified at upload is served. */
 export async function getCaptureDownloadUrl(actor: Actor, captureId: string): Promise<string> {
   const found = await getCaptureDetail(actor.scope, captureId);
   if (!found) throw new HttpError(404, "No such capture");
   if (found.capture.state === "uploading") throw new HttpError(409, "The upload of this capture has not been completed");
-  return presignDownload(found.capture.objectKey, found.capture.originalName);
+  const url = await presignVerifiedDownload(found.capture.objectKey, found.capture.originalName, found.capture.objectEtag);
+  if (url) return url;
+  console.error(`capture ${captureId}: the stored object is missing or differs from the one verified at upload (ETag ${found.capture.objectEtag ?? "none"}); not served`);
+  throw new HttpError(409, "The stored file is not the one verified at upload (it is missing or was replaced), so it is not served: ask the lab administrator");
 }
 
 /** A unit with its captures, their states and verdicts (bench API and unit page). */

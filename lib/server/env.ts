@@ -33,6 +33,9 @@ export const envSchema = z.object({
   NEXTAUTH_URL: url(),
   SMTP_HOST: z.preprocess(blankToUndefined, z.string().default("127.0.0.1")),
   SMTP_PORT: int(2529),
+  /** SMTP AUTH (the local fake requires it: user emfolio, the password from `scripts/services.sh env`). */
+  SMTP_USER: z.preprocess(blankToUndefined, z.string().optional()),
+  SMTP_PASSWORD: z.preprocess(blankToUndefined, z.string().optional()),
   MAIL_FROM: z.preprocess(blankToUndefined, z.string().default("Emfolio <no-reply@emfolio.invalid>")),
   MAIL_DIR: z.preprocess(blankToUndefined, z.string().optional()),
   UPLOAD_MAX_BYTES: int(2 * 1024 * 1024 * 1024),

@@ -7,7 +7,8 @@ let transport: Transporter | undefined;
 function getTransport(): Transporter {
   if (!transport) {
     const env = getEnv();
-    transport = nodemailer.createTransport({ host: env.SMTP_HOST, port: env.SMTP_PORT, secure: false, ignoreTLS: env.NODE_ENV !== "production" });
+    const auth = env.SMTP_USER ? { user: env.SMTP_USER, pass: env.SMTP_PASSWORD ?? "" } : undefined;
+    transport = nodemailer.createTransport({ host: env.SMTP_HOST, port: env.SMTP_PORT, secure: false, ignoreTLS: env.NODE_ENV !== "production", auth });
   }
   return transport;
 }

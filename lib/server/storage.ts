@@ -58,35 +58,60 @@ export function partCountFor(sizeBytes: number): number {
   return Math.max(1, Math.ceil(sizeBytes / partSizeFor(sizeBytes)));
 }
 
-/** A single PUT, bound to the key and the exact length (a store that checks signatures refuses any other). */
-export async function presignSinglePut(key: string, sizeBytes: number): Promise<string> {
-  const command = new PutObjectCommand({ Bucket: getEnv().S3_BUCKET, Key: key, ContentLength: sizeBytes, ContentType: "text/csv" });
-  return getSignedUrl(getPublicS3(), command, { expiresIn: UPLOAD_URL_TTL_S });
+/** The base64 form of a hex sha256, as x-amz-checksum-sha256 carries it. */
+export function sha256Base64(hex: string): string {
+  return Buffer.from(hex, "hex").toString("base64");
 }
 
+// Headers the client must send exactly as signed (kept out of the query string, so the store
+// compares them with the bytes it receives).
+const BOUND_HEADERS = new Set(["x-amz-checksum-sha256", "content-length", "if-none-match"]);
+
+/**
+ * A single PUT bound to the key, the exact length and the registered sha256 (the store refuses other
+ * bytes), and only while nothing is stored under the key (If-None-Match: *), so once the upload is
+ * in, the URL can no longer replace it. Returns the URL and the headers the client must send.
+ */
+export async function presignSinglePut(key: string, sizeBytes: number, sha256Hex: string): Promise<{ url: string; headers: Record<string, string> }> {
+  const checksum = sha256Base64(sha256Hex);
+  const command = new PutObjectCommand({
+    Bucket: getEnv().S3_BUCKET, Key: key, ContentLength: sizeBytes, ContentType: "text/csv", ChecksumSHA256: checksum, IfNoneMatch: "*",
+  });
+  const url = await getSignedUrl(getPublicS3(), command, { expiresIn: UPLOAD_URL_TTL_S, unhoistableHeaders: BOUND_HEADERS });
+  return { url, headers: { "Content-Type": "text/csv", "x-amz-checksum-sha256": checksum, "If-None-Match": "*" } };
+}
+
+/** Multipart uploads carry a SHA-256 per part, which the store checks on each part and at completion. */
 export async function createMultipartUpload(key: string): Promise<string> {
-  const out = await getS3().send(new CreateMultipartUploadCommand({ Bucket: getEnv().S3_BUCKET, Key: key, ContentType: "text/csv" }));
+  const out = await getS3().send(new CreateMultipartUploadCommand({ Bucket: getEnv().S3_BUCKET, Key: key, ContentType: "text/csv", ChecksumAlgorithm: "SHA256" }));
   if (!out.UploadId) throw new Error("The object store returned no multipart upload id");
   return out.UploadId;
 }
 
-export async function presignParts(key: string, uploadId: string, partNumbers: readonly number[]): Promise<{ partNumber: number; url: string }[]> {
+export type PartToSign = { partNumber: number; sizeBytes: number; sha256Base64: string };
+
+/** Part URLs bound to each part's length and the SHA-256 the client computed for it. */
+export async function presignParts(key: string, uploadId: string, parts: readonly PartToSign[]): Promise<{ partNumber: number; url: string; headers: Record<string, string> }[]> {
   const bucket = getEnv().S3_BUCKET;
   return Promise.all(
-    partNumbers.map(async (partNumber) => ({
-      partNumber,
-      url: await getSignedUrl(getPublicS3(), new UploadPartCommand({ Bucket: bucket, Key: key, UploadId: uploadId, PartNumber: partNumber }), {
-        expiresIn: UPLOAD_URL_TTL_S,
-      }),
-    })),
+    parts.map(async (part) => {
+      const command = new UploadPartCommand({
+        Bucket: bucket, Key: key, UploadId: uploadId, PartNumber: part.partNumber, ContentLength: part.sizeBytes, ChecksumSHA256: part.sha256Base64,
+      });
+      const url = await getSignedUrl(getPublicS3(), command, { expiresIn: UPLOAD_URL_TTL_S, unhoistableHeaders: BOUND_HEADERS });
+      return { partNumber: part.partNumber, url, headers: { "x-amz-checksum-sha256": part.sha256Base64 } };
+    }),
   );
 }
 
-export async function completeMultipartUpload(key: string, uploadId: string, parts: readonly { partNumber: number; etag: string }[]): Promise<void> {
+/** Assembles the parts; refused when an object is already stored under the key (If-None-Match: *). */
+export async function completeMultipartUpload(key: string, uploadId: string, parts: readonly { partNumber: number; etag: string; sha256?: string }[]): Promise<void> {
   await getS3().send(
     new CompleteMultipartUploadCommand({
-      Bucket: getEnv().S3_BUCKET, Key: key, UploadId: uploadId,
-      MultipartUpload: { Parts: [...parts].sort((a, b) => a.partNumber - b.partNumber).map((p) => ({ PartNumber: p.partNumber, ETag: p.etag })) },
+      Bucket: getEnv().S3_BUCKET, Key: key, UploadId: uploadId, IfNoneMatch: "*",
+      MultipartUpload: {
+        Parts: [...parts].sort((a, b) => a.partNumber - b.partNumber).map((p) => ({ PartNumber: p.partNumber, ETag: p.etag, ...(p.sha256 ? { ChecksumSHA256: p.sha256 } : {}) })),
+      },
     }),
   );
 }
@@ -116,7 +141,18 @@ export async function openObjectStream(key: string, etag?: string): Promise<Read
   return out.Body as Readable;
 }
 
-export async function presignDownload(key: string, fileName: string): Promise<string> {
+/**
+ * A download link for the object only while it is the one verified at completion: its ETag must
+ * equal the one recorded then (a later write to the key, however it got there, is detected and not
+ * served). Answers null when the object is missing or changed.
+ */
+export async function presignVerifiedDownload(key: string, fileName: string, verifiedEtag: string | null): Promise<string | null> {
+  const stored = await headObject(key);
+  if (!stored || !verifiedEtag || stored.etag !== verifiedEtag) return null;
+  return presignDownload(key, fileName);
+}
+
+async function presignDownload(key: string, fileName: string): Promise<string> {
   const safeName = fileName.replace(/[^\w.\- ]+/g, "_");
   const command = new GetObjectCommand({
     Bucket: getEnv().S3_BUCKET, Key: key, ResponseContentDisposition: `attachment; filename="${safeName}"`, ResponseContentType: "text/csv",

@@ -29,7 +29,8 @@ const TARGET_BYTES = Number(args.mib) * 1024 ** 2;
 const OUT = path.join(".data", "bench");
 const LANES = 4;
 
-type Plan = { capture: { id: string }; upload: { kind: "multipart"; partSize: number; parts: { partNumber: number; url: string }[] } | { kind: "single"; url: string; headers: Record<string, string> } | null };
+type Plan = { capture: { id: string }; upload: { kind: "multipart"; partSize: number; partCount: number } | { kind: "single"; url: string; headers: Record<string, string> } | null };
+type PartUrls = { parts: { partNumber: number; url: string; headers: Record<string, string> }[] };
 
 function benchFile(): { file: string; size: number } {
   mkdirSync(OUT, { recursive: true });
@@ -71,16 +72,20 @@ async function upload(token: string, file: string, size: number): Promise<string
     await benchApi(BASE, `/api/v1/captures/${plan.capture.id}/complete`, token, {});
     return plan.capture.id;
   }
-  const { partSize, parts } = plan.upload;
-  const etags: { partNumber: number; etag: string }[] = [];
-  let next = 0;
+  const { partSize, partCount } = plan.upload;
+  const etags: { partNumber: number; etag: string; sha256: string }[] = [];
+  let next = 1;
   await Promise.all(Array.from({ length: LANES }, async () => {
-    for (let i = next++; i < parts.length; i = next++) {
-      const part = parts[i] as { partNumber: number; url: string };
-      const start = (part.partNumber - 1) * partSize;
-      const res = await fetch(part.url, { method: "PUT", body: readSlice(file, start, Math.min(partSize, size - start)) });
-      if (!res.ok) throw new Error(`PUT part ${part.partNumber}: ${res.status}`);
-      etags.push({ partNumber: part.partNumber, etag: res.headers.get("etag") ?? "" });
+    for (let partNumber = next++; partNumber <= partCount; partNumber = next++) {
+      const start = (partNumber - 1) * partSize;
+      const body = readSlice(file, start, Math.min(partSize, size - start));
+      // Each part URL is bound to the part's sha256 (and length): ask for it once the part is hashed.
+      const sha256 = createHash("sha256").update(body).digest("hex");
+      const issued = (await benchApi<PartUrls>(BASE, `/api/v1/captures/${plan.capture.id}/parts`, token, { parts: [{ partNumber, sha256 }] })).parts[0];
+      if (!issued) throw new Error(`no URL for part ${partNumber}`);
+      const res = await fetch(issued.url, { method: "PUT", headers: issued.headers, body });
+      if (!res.ok) throw new Error(`PUT part ${partNumber}: ${res.status}`);
+      etags.push({ partNumber, etag: res.headers.get("etag") ?? "", sha256 });
     }
   }));
   await benchApi(BASE, `/api/v1/captures/${plan.capture.id}/complete`, token, { parts: etags.sort((a, b) => a.partNumber - b.partNumber) });

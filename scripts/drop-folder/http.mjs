@@ -1,7 +1,9 @@
 // HTTP for the drop-folder uploader: JSON calls to the bench API and ranged PUTs to storage.
+import { createHash } from "node:crypto";
 import { createReadStream } from "node:fs";
 import http from "node:http";
 import https from "node:https";
+import { setTimeout as sleep } from "node:timers/promises";
 
 /** Worth trying again later: the network, a busy or unavailable server. */
 export class TransientError extends Error {
@@ -28,7 +30,9 @@ export function retryAfterMs(header, now = Date.now()) {
 }
 
 function classify(status, message, headers) {
-  if (status === 429 || status === 503) return new TransientError(`${status}: ${message}`, retryAfterMs(headers["retry-after"] ?? null));
+  // 409 with Retry-After: an earlier try of this upload still holds its lease (the server says when to come back).
+  const busy = status === 409 && headers["retry-after"] !== undefined;
+  if (status === 429 || status === 503 || busy) return new TransientError(`${status}: ${message}`, retryAfterMs(headers["retry-after"] ?? null));
   if (status >= 500) return new TransientError(`${status}: ${message}`);
   return new HttpStatusError(status, message);
 }
@@ -84,6 +88,35 @@ export async function callApi(server, key, method, path, payload) {
   }
   if (response.status >= 200 && response.status < 300) return { status: response.status, json };
   throw classify(response.status, json?.error ?? `HTTP ${response.status}`, response.headers);
+}
+
+/** The sha256 (hex) of bytes [start, end) of a file. */
+export function sha256Range(file, start, end) {
+  return new Promise((resolve, reject) => {
+    const hash = createHash("sha256");
+    createReadStream(file, { start, end: end - 1, highWaterMark: 256 * 1024 }).on("data", (c) => hash.update(c)).on("end", () => resolve(hash.digest("hex"))).on("error", reject);
+  });
+}
+
+export const MAX_TRIES = 5;
+const TRY_BACKOFF_MS = [1000, 2000, 4000, 8000];
+
+/**
+ * Runs `attempt` again after a TransientError (Retry-After when given, else a growing pause), at most
+ * MAX_TRIES times; then gives up with a TransientError that says how often it tried and why.
+ */
+export async function withRetries(what, attempt, onWait) {
+  for (let tryNumber = 1; ; tryNumber++) {
+    try {
+      return await attempt();
+    } catch (error) {
+      if (!(error instanceof TransientError)) throw error;
+      if (tryNumber >= MAX_TRIES) throw new TransientError(`${what}: gave up after ${tryNumber} tries (last: ${error.message})`, error.retryAfterMs);
+      const wait = error.retryAfterMs ?? TRY_BACKOFF_MS[Math.min(tryNumber - 1, TRY_BACKOFF_MS.length - 1)];
+      onWait?.(wait, error, tryNumber);
+      await sleep(wait);
+    }
+  }
 }
 
 /** PUTs bytes [start, end) of a file to a presigned URL; returns the ETag. */

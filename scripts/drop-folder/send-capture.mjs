@@ -1,9 +1,12 @@
 // Sends one settled capture: register, upload (single PUT or the parts of a multipart plan), complete.
-// Uploads in progress are kept in the state file, so an interrupted multipart upload resumes.
+// Uploads in progress are kept in the state file, so an interrupted multipart upload resumes. Every
+// upload URL is bound to its bytes: a part's URL is asked for with the part's sha256 and carries it.
+// A store or server that is away or busy (network errors, 429, 5xx) is tried again a few times in
+// place, honouring Retry-After; after that the file waits for the next attempt of the main loop.
 import { statSync } from "node:fs";
 import path from "node:path";
 import { captureMeta, RefusedError } from "./capture-meta.mjs";
-import { HttpStatusError, TransientError, callApi, putRange } from "./http.mjs";
+import { HttpStatusError, TransientError, callApi, putRange, sha256Range, withRetries } from "./http.mjs";
 import { saveState } from "./state.mjs";
 
 /** Start over from registration (the upload the server knew is gone or cannot be assembled). */
@@ -29,20 +32,46 @@ async function register(ctx, file, sha256, meta) {
   }
 }
 
-async function uploadParts(ctx, file, entry, urls) {
+function retrying(ctx, what, attempt) {
+  return withRetries(what, attempt, (wait, error, tryNumber) => ctx.log("retry", `${what}: ${error.message}; try ${tryNumber + 1} in ${Math.round(wait / 100) / 10} s`));
+}
+
+/** A URL for one part, bound to its sha256 (and, by the server, to its length). */
+async function partUrl(ctx, entry, partNumber, sha256) {
+  try {
+    const answer = await callApi(ctx.server, ctx.key, "POST", `/api/v1/captures/${entry.captureId}/parts`, { parts: [{ partNumber, sha256 }] });
+    const issued = answer.json?.parts?.[0];
+    if (!issued?.url) throw new RestartError(`no URL was issued for part ${partNumber}`);
+    return issued;
+  } catch (error) {
+    if (error instanceof HttpStatusError && error.status !== 401 && error.status !== 403) throw new RestartError(error.message);
+    throw error;
+  }
+}
+
+async function uploadParts(ctx, file, entry) {
   const size = statSync(file).size;
+  const base = path.basename(file);
+  entry.sha256s ??= {};
   let done = Object.keys(entry.etags).reduce((sum, n) => sum + Math.min(entry.partSize, size - (Number(n) - 1) * entry.partSize), 0);
-  for (const { partNumber, url } of urls) {
+  for (let partNumber = 1; partNumber <= entry.partCount; partNumber++) {
     if (entry.etags[partNumber]) continue;
     const start = (partNumber - 1) * entry.partSize;
     const end = Math.min(size, start + entry.partSize);
-    let sent = 0;
-    try {
-      entry.etags[partNumber] = await putRange(url, file, start, end, {}, (n) => progress(ctx, path.basename(file), done + (sent += n), size), ctx.limitBytesPerS);
-    } catch (error) {
-      if (error instanceof HttpStatusError) throw new RestartError(error.message);
-      throw error;
-    }
+    const sha256 = await sha256Range(file, start, end);
+    const etag = await retrying(ctx, `${base}, part ${partNumber}`, async () => {
+      // A fresh URL for every try: one issued before the store went away may have expired since.
+      const issued = await partUrl(ctx, entry, partNumber, sha256);
+      let sent = 0;
+      try {
+        return await putRange(issued.url, file, start, end, issued.headers ?? {}, (n) => progress(ctx, base, done + (sent += n), size), ctx.limitBytesPerS);
+      } catch (error) {
+        if (error instanceof HttpStatusError) throw new RestartError(error.message);
+        throw error;
+      }
+    });
+    entry.etags[partNumber] = etag;
+    entry.sha256s[partNumber] = sha256;
     done += end - start;
     saveState(ctx.stateFile, ctx.state);
   }
@@ -50,17 +79,23 @@ async function uploadParts(ctx, file, entry, urls) {
 
 async function uploadSingle(ctx, file, plan) {
   const size = statSync(file).size;
-  let sent = 0;
-  try {
-    await putRange(plan.url, file, 0, size, plan.headers ?? {}, (n) => progress(ctx, path.basename(file), (sent += n), size), ctx.limitBytesPerS);
-  } catch (error) {
-    if (error instanceof HttpStatusError) throw new RestartError(error.message);
-    throw error;
-  }
+  await retrying(ctx, path.basename(file), async () => {
+    let sent = 0;
+    try {
+      await putRange(plan.url, file, 0, size, plan.headers ?? {}, (n) => progress(ctx, path.basename(file), (sent += n), size), ctx.limitBytesPerS);
+    } catch (error) {
+      // 412: the URL is bound to this file's sha256 and the key holds an object: this file, from a try whose answer was lost.
+      if (error instanceof HttpStatusError && error.status === 412) return;
+      if (error instanceof HttpStatusError) throw new RestartError(error.message);
+      throw error;
+    }
+  });
 }
 
 async function complete(ctx, entry) {
-  const parts = entry.kind === "multipart" ? Object.entries(entry.etags).map(([n, etag]) => ({ partNumber: Number(n), etag })).sort((a, b) => a.partNumber - b.partNumber) : undefined;
+  const parts = entry.kind === "multipart"
+    ? Object.entries(entry.etags).map(([n, etag]) => ({ partNumber: Number(n), etag, ...(entry.sha256s?.[n] ? { sha256: entry.sha256s[n] } : {}) })).sort((a, b) => a.partNumber - b.partNumber)
+    : undefined;
   try {
     return (await callApi(ctx.server, ctx.key, "POST", `/api/v1/captures/${entry.captureId}/complete`, parts ? { parts } : {})).json;
   } catch (error) {
@@ -69,23 +104,6 @@ async function complete(ctx, entry) {
     if (error.status === 401 || error.status === 403) throw error;
     throw new RestartError(error.message);
   }
-}
-
-/** Missing parts of a multipart upload already registered: fresh URLs from the server. */
-async function resumeUrls(ctx, entry) {
-  const missing = Array.from({ length: entry.partCount }, (_, i) => i + 1).filter((n) => !entry.etags[n]);
-  if (missing.length === 0) return [];
-  const urls = [];
-  for (let i = 0; i < missing.length; i += 200) {
-    try {
-      const answer = await callApi(ctx.server, ctx.key, "POST", `/api/v1/captures/${entry.captureId}/parts`, { partNumbers: missing.slice(i, i + 200) });
-      urls.push(...answer.json.parts);
-    } catch (error) {
-      if (error instanceof HttpStatusError && error.status !== 401 && error.status !== 403) throw new RestartError(error.message);
-      throw error;
-    }
-  }
-  return urls;
 }
 
 /**
@@ -97,22 +115,19 @@ export async function sendCapture(ctx, file, sha256) {
   for (let restarts = 0; ; restarts++) {
     let entry = ctx.state.pending[sha256];
     try {
-      let urls = null;
       if (entry?.kind === "multipart") {
         ctx.log("info", `${path.basename(file)}: resuming upload of capture ${entry.captureId} (${Object.keys(entry.etags).length} of ${entry.partCount} parts stored)`);
-        urls = await resumeUrls(ctx, entry);
       } else {
         const answer = await register(ctx, file, sha256, meta);
         const plan = answer.upload;
         if (!plan) return { captureId: answer.capture.id, state: answer.capture.state, duplicate: true };
         entry = { captureId: answer.capture.id, file: path.basename(file), kind: plan.kind, etags: {} };
-        if (plan.kind === "multipart") Object.assign(entry, { partSize: plan.partSize, partCount: plan.parts.length });
+        if (plan.kind === "multipart") Object.assign(entry, { partSize: plan.partSize, partCount: plan.partCount, sha256s: {} });
         ctx.state.pending[sha256] = entry;
         saveState(ctx.stateFile, ctx.state);
         if (plan.kind === "single") await uploadSingle(ctx, file, plan);
-        else urls = plan.parts;
       }
-      if (urls) await uploadParts(ctx, file, entry, urls);
+      if (entry.kind === "multipart") await uploadParts(ctx, file, entry);
       const done = await complete(ctx, entry);
       return { captureId: entry.captureId, state: done?.state ?? "queued", duplicate: false };
     } catch (error) {

@@ -6,7 +6,6 @@
 
 S3_DIR="$DATA_DIR/s3"
 S3_BUCKETS=(emfolio-captures emfolio-test)
-S3_CORS="$SERVICES_DIR/s3-cors.xml"
 MAIL_DIR="$DATA_DIR/mail"
 UT_DIR="$DATA_DIR/uploadthing"
 
@@ -130,31 +129,65 @@ node_fake_stop() {
   rm -f "$pidfile" "$RUN_DIR/$name.port"
 }
 
+# s3_secret: the store's secret access key (random, created on first use; the access key id is S3RVER).
+s3_secret() {
+  local file="$DATA_DIR/s3-secret" tmp
+  mkdir -p "$DATA_DIR"
+  if [[ ! -s "$file" ]]; then
+    tmp="$file.tmp.$$"
+    (umask 077 && head -c 24 /dev/urandom | od -An -tx1 | tr -d ' \n' >"$tmp")
+    mv -n "$tmp" "$file"
+    rm -f "$tmp"
+  fi
+  tr -d '\n' <"$file"
+}
+
+# Origins the store answers CORS for: the app (dev and demo on 3000, the tests on EMFOLIO_E2E_PORT),
+# or EMFOLIO_APP_ORIGINS (space-separated) when set.
+s3_origins() {
+  local e2e="${EMFOLIO_E2E_PORT:-3100}"
+  printf '%s' "${EMFOLIO_APP_ORIGINS:-http://127.0.0.1:3000 http://localhost:3000 http://127.0.0.1:$e2e http://localhost:$e2e}"
+}
+
 s3_start() {
   mkdir -p "$S3_DIR"
-  local args=(-d "$S3_DIR" -a 127.0.0.1 -p "$EMFOLIO_S3_PORT")
-  local b
-  for b in "${S3_BUCKETS[@]}"; do
-    args+=(--configure-bucket "$b" "$S3_CORS")
-  done
+  s3_secret >/dev/null
+  local args=(--port "$EMFOLIO_S3_PORT" --dir "$S3_DIR" --secret-file "$DATA_DIR/s3-secret")
+  local b o
+  for b in "${S3_BUCKETS[@]}"; do args+=(--bucket "$b"); done
+  for o in $(s3_origins); do args+=(--origin "$o"); done
   NODE_OPTIONS="--openssl-legacy-provider${NODE_OPTIONS:+ $NODE_OPTIONS}" \
     node_fake_start s3 "$EMFOLIO_S3_PORT" s3_probe \
-    node "$PROJECT_ROOT/node_modules/s3rver/bin/s3rver.js" "${args[@]}"
+    "$TSX" "$SERVICES_DIR/s3-server.ts" "${args[@]}"
 }
 
 s3_stop() {
-  node_fake_stop s3 "$EMFOLIO_S3_PORT" "s3rver"
+  node_fake_stop s3 "$EMFOLIO_S3_PORT" "s3-server.ts"
 }
 
 s3_status_detail() {
-  printf 'http://127.0.0.1:%s (S3RVER/S3RVER, path style; buckets %s)' "$EMFOLIO_S3_PORT" \
+  printf 'http://127.0.0.1:%s (S3RVER and the secret in .data/s3-secret, signatures checked, path style; buckets %s)' "$EMFOLIO_S3_PORT" \
     "$(IFS=,; printf '%s' "${S3_BUCKETS[*]}")"
+}
+
+# smtp_secret: the SMTP fake's password for user emfolio (random, created on first use).
+smtp_secret() {
+  local file="$DATA_DIR/smtp-secret" tmp
+  mkdir -p "$DATA_DIR"
+  if [[ ! -s "$file" ]]; then
+    tmp="$file.tmp.$$"
+    (umask 077 && head -c 24 /dev/urandom | od -An -tx1 | tr -d ' \n' >"$tmp")
+    mv -n "$tmp" "$file"
+    rm -f "$tmp"
+  fi
+  tr -d '\n' <"$file"
 }
 
 smtp_start() {
   mkdir -p "$MAIL_DIR"
+  smtp_secret >/dev/null
   node_fake_start smtp "$EMFOLIO_SMTP_PORT" smtp_probe \
-    "$TSX" "$SERVICES_DIR/smtp-server.ts" --port "$EMFOLIO_SMTP_PORT" --dir "$MAIL_DIR"
+    "$TSX" "$SERVICES_DIR/smtp-server.ts" --port "$EMFOLIO_SMTP_PORT" --dir "$MAIL_DIR" --secret-file "$DATA_DIR/smtp-secret"
 }
 
 smtp_stop() {
@@ -162,7 +195,7 @@ smtp_stop() {
 }
 
 smtp_status_detail() {
-  printf 'smtp://127.0.0.1:%s (any or no auth; mail in .data/mail)' "$EMFOLIO_SMTP_PORT"
+  printf 'smtp://127.0.0.1:%s (AUTH as emfolio with the password in .data/smtp-secret; mail in .data/mail)' "$EMFOLIO_SMTP_PORT"
 }
 
 # A GET on the fake's /health answers {"ok":true,...}.

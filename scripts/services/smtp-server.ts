@@ -1,9 +1,10 @@
 /**
  * Local SMTP fake for development and tests (started by scripts/services.sh).
  *
- *   node_modules/.bin/tsx scripts/services/smtp-server.ts --port 2529 --dir .data/mail
+ *   node_modules/.bin/tsx scripts/services/smtp-server.ts --port 2529 --dir .data/mail --secret-file .data/smtp-secret
  *
- * Listens on 127.0.0.1 only, accepts any AUTH (or none), no TLS. Each message is
+ * Listens on 127.0.0.1 only, no TLS. Requires AUTH (PLAIN or LOGIN) as user `emfolio` with the
+ * password in --secret-file before MAIL FROM; anything else is refused (535, or 530 without AUTH). Each message is
  * stored as two files with the same base name:
  *   <dir>/<timestamp>-<id>.eml   the raw message as received
  *   <dir>/<timestamp>-<id>.json  a StoredMail record (see the type below)
@@ -11,8 +12,8 @@
  * arrival order. The .json file is written last and atomically (temp file +
  * rename): a reader that lists *.json never sees a half-written message.
  */
-import { randomBytes } from "node:crypto";
-import { mkdirSync, renameSync, writeFileSync } from "node:fs";
+import { randomBytes, timingSafeEqual } from "node:crypto";
+import { mkdirSync, readFileSync, renameSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { simpleParser, type AddressObject } from "mailparser";
 import { SMTPServer, type SMTPServerAddress } from "smtp-server";
@@ -53,6 +54,23 @@ function arg(name: string, fallback: string): string {
 const port = Number(arg("port", process.env.EMFOLIO_SMTP_PORT ?? "2529"));
 const dir = path.resolve(arg("dir", ".data/mail"));
 const MAX_SIZE = 25 * 1024 * 1024;
+/** The one account the fake knows; its password is the shared secret. */
+export const SMTP_USER = "emfolio";
+const secretFile = arg("secret-file", "");
+if (!secretFile) {
+  console.error("smtp-server: --secret-file is required (the fake refuses mail without its password)");
+  process.exit(2);
+}
+const secret = Buffer.from(readFileSync(secretFile, "utf8").trim());
+if (secret.length < 16) {
+  console.error(`smtp-server: the secret in ${secretFile} is shorter than 16 characters`);
+  process.exit(2);
+}
+
+function secretMatches(user: string | null | undefined, password: string | null | undefined): boolean {
+  const given = Buffer.from(password ?? "");
+  return user === SMTP_USER && given.length === secret.length && timingSafeEqual(given, secret);
+}
 
 mkdirSync(dir, { recursive: true });
 
@@ -122,7 +140,8 @@ const server = new SMTPServer({
   banner: "Emfolio local mail fake (messages are stored, never delivered)",
   secure: false,
   disabledCommands: ["STARTTLS"],
-  authOptional: true,
+  authOptional: false,
+  authMethods: ["PLAIN", "LOGIN"],
   allowInsecureAuth: true,
   size: MAX_SIZE,
   logger: false,
@@ -131,8 +150,12 @@ const server = new SMTPServer({
     if (ip === "127.0.0.1" || ip === "::1" || ip.startsWith("127.")) return callback();
     return callback(new Error("loopback connections only"));
   },
-  onAuth(auth, _session, callback) {
-    callback(null, { user: auth.username ?? "anonymous" });
+  onAuth(auth, session, callback) {
+    if (secretMatches(auth.username, auth.password)) return callback(null, { user: SMTP_USER });
+    console.log(`${new Date().toISOString()} refused AUTH from ${session.remoteAddress} as ${JSON.stringify(auth.username ?? "")}`);
+    const err = new Error("Authentication failed: wrong user or password") as Error & { responseCode: number };
+    err.responseCode = 535;
+    return callback(err);
   },
   onData(stream, session, callback) {
     const chunks: Buffer[] = [];

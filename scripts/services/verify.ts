@@ -34,7 +34,10 @@ const S3_PORT = Number(process.env.EMFOLIO_S3_PORT ?? 45690);
 const SMTP_PORT = Number(process.env.EMFOLIO_SMTP_PORT ?? 2529);
 const UT_PORT = Number(process.env.EMFOLIO_UPLOADTHING_PORT ?? 45700);
 const ENDPOINT = `http://127.0.0.1:${S3_PORT}`;
-const MAIL_DIR = path.join(root, ".data/mail");
+const DATA_DIR = process.env.EMFOLIO_DATA_DIR ?? path.join(root, ".data");
+const MAIL_DIR = path.join(DATA_DIR, "mail");
+const S3_SECRET = readFileSync(path.join(DATA_DIR, "s3-secret"), "utf8").trim();
+const SMTP_SECRET = readFileSync(path.join(DATA_DIR, "smtp-secret"), "utf8").trim();
 
 function ok(msg: string): void {
   console.log(`ok   ${msg}`);
@@ -83,7 +86,7 @@ async function checkS3(): Promise<void> {
     endpoint: ENDPOINT,
     region: "us-east-1",
     forcePathStyle: true,
-    credentials: { accessKeyId: "S3RVER", secretAccessKey: "S3RVER" },
+    credentials: { accessKeyId: "S3RVER", secretAccessKey: S3_SECRET },
     requestChecksumCalculation: "WHEN_REQUIRED",
     responseChecksumValidation: "WHEN_REQUIRED",
   });
@@ -157,13 +160,19 @@ async function checkS3(): Promise<void> {
   }
   ok("s3: CORS preflight for PUT from http://127.0.0.1:3000 allowed");
   const putWithOrigin = curl([
-    "-i", "-T", "-", "-H", `Origin: ${origin}`,
+    "-i", "-X", "PUT", "--data-binary", "cors check", "-H", `Origin: ${origin}`,
     await getSignedUrl(s3, new PutObjectCommand({ Bucket, Key: `${stamp}/cors.txt` }), { expiresIn: 300 }),
   ]);
   if (!/^access-control-expose-headers:.*ETag/im.test(putWithOrigin) || !/^etag:/im.test(putWithOrigin)) {
     throw new Error(`PUT with Origin does not expose ETag:\n${putWithOrigin}`);
   }
   ok("s3: PUT with an Origin header returns ETag and Access-Control-Expose-Headers: ETag");
+  const foreign = curl(["-o", "/dev/null", "-w", "%{http_code}", "-X", "OPTIONS", `${ENDPOINT}/emfolio-captures/k.csv`, "-H", "Origin: http://elsewhere.example", "-H", "Access-Control-Request-Method: PUT"]);
+  if (foreign !== "403") throw new Error(`CORS preflight from another origin answered ${foreign}, not 403`);
+  ok("s3: CORS preflight from another origin refused (403)");
+  const unsigned = curl(["-o", "/dev/null", "-w", "%{http_code}", `${ENDPOINT}/${Bucket}/${key3}`]);
+  if (unsigned !== "403") throw new Error(`an unsigned GET answered ${unsigned}, not 403`);
+  ok("s3: an unsigned GET refused (403)");
 
   for (const Key of [key1, key2, key3, `${stamp}/cors.txt`]) {
     await s3.send(new DeleteObjectCommand({ Bucket, Key }));
@@ -172,12 +181,17 @@ async function checkS3(): Promise<void> {
 }
 
 async function checkSmtp(): Promise<void> {
+  const stranger = nodemailer.createTransport({ host: "127.0.0.1", port: SMTP_PORT, secure: false, ignoreTLS: true, auth: { user: "emfolio", pass: "wrong-password" } });
+  const refused = await stranger.sendMail({ from: "x@example.test", to: "y@example.test", subject: "x", text: "x" }).then(() => null, (e: { responseCode?: number }) => e.responseCode ?? -1);
+  stranger.close();
+  if (refused !== 535) throw new Error(`the SMTP fake took mail with a wrong password (answer ${refused})`);
+  ok("smtp: a wrong password is refused (535)");
   const transport = nodemailer.createTransport({
     host: "127.0.0.1",
     port: SMTP_PORT,
     secure: false,
     ignoreTLS: true,
-    auth: { user: "anyone", pass: "anything" },
+    auth: { user: "emfolio", pass: SMTP_SECRET },
   });
   const subject = `Emfolio services verify ${new Date().toISOString()}`;
   const info = await transport.sendMail({

@@ -6,7 +6,7 @@ import { captures } from "@/db/schema";
 import { headObject } from "@/lib/server/storage";
 import { makeThreePhaseCsv } from "@/tests/fixtures/pipeline/make-capture";
 import { sweepAbandonedUploads } from "@/worker/abandoned-uploads";
-import { closeConnections, completeViaApi, demoLabStation, registerViaApi, sha256 } from "./pipeline-support";
+import { closeConnections, completeViaApi, demoLabStation, putPartViaApi, registerViaApi, sha256 } from "./pipeline-support";
 
 const DAY_MS = 24 * 3_600_000;
 let labId: string;
@@ -31,9 +31,7 @@ describe("sweepAbandonedUploads", () => {
     const bigSize = 48 * 1024 ** 2;
     const multi = await registerViaApi(token, "x", { unitSerial: "KG45-260306", sizeBytes: bigSize, sha256: sha256(`big-${run}`) });
     if (multi.body.upload?.kind !== "multipart") throw new Error("expected a multipart plan");
-    const part = multi.body.upload.parts[0];
-    if (!part) throw new Error("no part URL");
-    expect((await fetch(part.url, { method: "PUT", body: Buffer.alloc(multi.body.upload.partSize, 65) })).ok).toBe(true);
+    expect((await putPartViaApi(token, multi.body.capture?.id ?? "", 1, Buffer.alloc(multi.body.upload.partSize, 65))).etag).not.toBe("");
     const recent = await registerViaApi(token, makeThreePhaseCsv({ variant: run + 1 }), { unitSerial: "KG45-260306" });
     const ids = [single, multi, recent].map((r) => r.body.capture?.id ?? "");
     const [singleId = "", multiId = "", recentId = ""] = ids;

@@ -16,6 +16,7 @@ import { childProcessEnv } from "@/lib/server/env";
 import { closeAnalysisQueue } from "@/lib/server/queue";
 import { POST as registerRoute } from "@/app/api/v1/captures/route";
 import { POST as completeRoute } from "@/app/api/v1/captures/[id]/complete/route";
+import { POST as partsRoute } from "@/app/api/v1/captures/[id]/parts/route";
 import type { UploadPlan } from "@/lib/captures/input-schemas";
 import { seededOrgs } from "./helpers";
 
@@ -63,7 +64,25 @@ export async function registerViaApi(token: string, csv: string, meta: Record<st
   return { status: res.status, body: await res.json() };
 }
 
-export async function completeViaApi(token: string, id: string, parts?: { partNumber: number; etag: string }[]) {
+/** A part URL bound to the part's bytes (their sha256), as the bench API issues it; `sha256Hex` defaults to that of `body`. */
+export async function partUrlViaApi(token: string, id: string, partNumber: number, body: Uint8Array<ArrayBuffer>, sha256Hex?: string) {
+  const sum = sha256Hex ?? createHash("sha256").update(body).digest("hex");
+  const res = await partsRoute(jsonRequest(`http://test/api/v1/captures/${id}/parts`, token, { parts: [{ partNumber, sha256: sum }] }), { params: Promise.resolve({ id }) });
+  const json = (await res.json()) as { parts?: { partNumber: number; url: string; headers: Record<string, string> }[]; error?: string };
+  const part = json.parts?.[0];
+  if (!part) throw new Error(`part URL refused: ${res.status} ${json.error}`);
+  return { ...part, sha256: sum };
+}
+
+/** PUTs one part through a bound URL; returns what completion needs. */
+export async function putPartViaApi(token: string, id: string, partNumber: number, body: Uint8Array<ArrayBuffer>) {
+  const part = await partUrlViaApi(token, id, partNumber, body);
+  const put = await fetch(part.url, { method: "PUT", headers: part.headers, body });
+  if (!put.ok) throw new Error(`PUT part ${partNumber} failed: ${put.status} ${await put.text()}`);
+  return { partNumber, etag: put.headers.get("etag") ?? "", sha256: part.sha256 };
+}
+
+export async function completeViaApi(token: string, id: string, parts?: { partNumber: number; etag: string; sha256?: string }[]) {
   const res = await completeRoute(jsonRequest(`http://test/api/v1/captures/${id}/complete`, token, { parts }), { params: Promise.resolve({ id }) });
   return { status: res.status, body: (await res.json()) as { state?: string; error?: string } };
 }
@@ -73,18 +92,15 @@ export async function uploadViaApi(token: string, csv: string, meta: Record<stri
   const reg = await registerViaApi(token, csv, meta);
   if (!reg.body.capture) throw new Error(`register failed: ${reg.status} ${reg.body.error}`);
   const upload = reg.body.upload;
-  let parts: { partNumber: number; etag: string }[] | undefined;
+  let parts: { partNumber: number; etag: string; sha256: string }[] | undefined;
   if (upload?.kind === "single") {
     const put = await fetch(upload.url, { method: "PUT", headers: upload.headers, body: csv });
     if (!put.ok) throw new Error(`PUT failed: ${put.status}`);
   } else if (upload?.kind === "multipart") {
     const bytes = Buffer.from(csv);
     parts = [];
-    for (const part of upload.parts) {
-      const body = bytes.subarray((part.partNumber - 1) * upload.partSize, part.partNumber * upload.partSize);
-      const put = await fetch(part.url, { method: "PUT", body });
-      if (!put.ok) throw new Error(`PUT part ${part.partNumber} failed: ${put.status}`);
-      parts.push({ partNumber: part.partNumber, etag: put.headers.get("etag") ?? "" });
+    for (let n = 1; n <= upload.partCount; n++) {
+      parts.push(await putPartViaApi(token, reg.body.capture.id, n, bytes.subarray((n - 1) * upload.partSize, n * upload.partSize)));
     }
   }
   const id = reg.body.capture.id;

@@ -1,4 +1,8 @@
+import { PutObjectCommand } from "@aws-sdk/client-s3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { getCaptureDetail } from "@/db/queries/captures";
+import { getEnv } from "@/lib/server/env";
+import { getS3 } from "@/lib/server/storage";
 import { getCurrentAnalysis, listAnalysisHistory } from "@/db/queries/analyses";
 import { getUnit } from "@/db/queries/units";
 import { HttpError } from "@/lib/auth/guards";
@@ -55,13 +59,18 @@ describe("bench API upload → queue → worker → PostgreSQL", () => {
 });
 
 describe("abuse of presigned upload URLs", () => {
-  it("other bytes PUT through a capture's URL (same size) end rejected by the sha256 check, never analysed", async () => {
+  it("other bytes PUT through a capture's URL (same size) are refused by the store; written past the URL they end rejected by the sha256 check, never analysed", async () => {
     const declared = makeThreePhaseCsv({ variant: (run % 1000) + 7000 });
     const other = declared.replace("V_AN (V)", "V_XX (V)");
     const reg = await registerViaApi(token, declared, { unitSerial: "KG45-260302" });
     const upload = reg.body.upload;
     if (upload?.kind !== "single") throw new Error("expected a single-PUT plan");
-    expect((await fetch(upload.url, { method: "PUT", headers: upload.headers, body: other })).ok).toBe(true);
+    const swap = await fetch(upload.url, { method: "PUT", headers: upload.headers, body: other });
+    expect([swap.status, /<Code>([^<]+)</.exec(await swap.text())?.[1]]).toEqual([400, "BadDigest"]);
+    expect((await completeViaApi(token, reg.body.capture?.id ?? "")).status).toBe(409);
+    // The worker's own check, for bytes that reach the key some other way (here: the app's credentials).
+    const key = (await getCaptureDetail({ kind: "lab", labId }, reg.body.capture?.id ?? ""))!.capture.objectKey;
+    await getS3().send(new PutObjectCommand({ Bucket: getEnv().S3_BUCKET, Key: key, Body: other, ContentLength: Buffer.byteLength(other) }));
     expect((await completeViaApi(token, reg.body.capture?.id ?? "")).status).toBe(202);
     const capture = await waitForState(labId, reg.body.capture?.id ?? "", ["analysed", "rejected", "failed"]);
     expect(capture.state).toBe("rejected");
@@ -70,7 +79,7 @@ describe("abuse of presigned upload URLs", () => {
 });
 
 describe("immutable raw objects", () => {
-  it("an object overwritten through its old upload URL after completion is refused on the next run, never analysed as the original", async () => {
+  it("an old upload URL cannot overwrite a completed capture (412); an object overwritten past it is refused on the next run, never analysed as the original", async () => {
     const csv = makeThreePhaseCsv({ variant: (run % 1000) + 8000 });
     const reg = await registerViaApi(token, csv, { unitSerial: "KG45-260303" });
     const upload = reg.body.upload;
@@ -79,12 +88,16 @@ describe("immutable raw objects", () => {
     await fetch(upload.url, { method: "PUT", headers: upload.headers, body: csv });
     expect((await completeViaApi(token, id)).status).toBe(202);
     expect((await waitForState(labId, id, ["analysed", "rejected", "failed"])).state).toBe("analysed");
-    await fetch(upload.url, { method: "PUT", headers: upload.headers, body: csv.replace("V_AN (V)", "V_XX (V)") });
+    const replaced = csv.replace("V_AN (V)", "V_XX (V)");
+    expect((await fetch(upload.url, { method: "PUT", headers: upload.headers, body: replaced })).status).toBe(400);
+    expect((await fetch(upload.url, { method: "PUT", headers: upload.headers, body: csv })).status).toBe(412);
+    const key = (await getCaptureDetail({ kind: "lab", labId }, id))!.capture.objectKey;
+    await getS3().send(new PutObjectCommand({ Bucket: getEnv().S3_BUCKET, Key: key, Body: replaced, ContentLength: Buffer.byteLength(replaced) }));
     await requestReanalysis(await demoActor("admin"), { captureId: id });
     const capture = await waitForState(labId, id, ["rejected", "failed"], 30_000);
     expect(capture.state).toBe("rejected");
-    // A real S3 answers the worker's If-Match on the recorded ETag with 412; the local fake ignores
-    // If-Match, so there the sha256 check catches it. Either way: rejected, with an integrity message.
+    // The worker reads with If-Match on the recorded ETag (412 from the store), and checks the sha256:
+    // either way the capture is rejected with an integrity message.
     expect(capture.stateMessage).toMatch(/changed after its upload was completed|does not match the sha256/);
   });
 });

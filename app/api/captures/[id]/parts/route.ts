@@ -4,10 +4,10 @@ import { presignCaptureParts } from "@/lib/dal/capture-intake";
 import { readJson, requireUuid } from "@/lib/dal/request";
 import { apiRoute } from "@/lib/dal/route-handler";
 
-/** Fresh URLs for parts of a multipart upload whose first URLs expired. */
+/** URLs for parts of a multipart upload, each bound to the part's length and the sha256 the client computed. */
 export const POST = apiRoute(async (request: Request, { params }: { params: Promise<{ id: string }> }) => {
   const actor = await requireSessionActor();
   const id = requireUuid((await params).id, "capture");
   const input = await readJson(request, presignPartsSchema);
-  return Response.json({ parts: await presignCaptureParts(actor, id, input.partNumbers) });
+  return Response.json({ parts: await presignCaptureParts(actor, id, input.parts) });
 });
