@@ -14,10 +14,11 @@ const ITEMS: Record<string, NavItem> = {
   clients: { href: "/admin/clients", label: "Clients" },
   people: { href: "/admin/people", label: "People" },
   mailbox: { href: "/admin/mailbox", label: "Outbox" },
+  lab: { href: "/admin/lab", label: "Lab settings" },
 };
 
 const BY_ROLE: Record<Role, (keyof typeof ITEMS)[]> = {
-  admin: ["home", "units", "captures", "upload", "review", "trends", "ratings", "stations", "clients", "people", "mailbox"],
+  admin: ["home", "units", "captures", "upload", "review", "trends", "ratings", "stations", "clients", "people", "mailbox", "lab"],
   operator: ["home", "upload", "captures", "units", "ratings", "stations"],
   qa: ["home", "review", "units", "captures", "trends", "ratings"],
   manufacturer: ["home", "units"],
