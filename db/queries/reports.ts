@@ -14,6 +14,22 @@ type Build = (numbering: Numbering) => Promise<ReleasedFields>;
 
 type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
 
+// Releases of one lab wait for each other on the lab_settings row anyway; queuing them here first keeps
+// the waiting ones from holding pool connections while an earlier release renders its PDF.
+const globalForQueue = globalThis as unknown as { emfolioReleaseQueues?: Map<string, Promise<unknown>> };
+
+function oneAtATimePerLab<T>(labId: string, task: () => Promise<T>): Promise<T> {
+  const queues = (globalForQueue.emfolioReleaseQueues ??= new Map());
+  const previous = queues.get(labId) ?? Promise.resolve();
+  const run = previous.then(task, task);
+  const settled = run.catch(() => undefined);
+  queues.set(labId, settled);
+  void settled.then(() => {
+    if (queues.get(labId) === settled) queues.delete(labId);
+  });
+  return run;
+}
+
 async function lockUnit(tx: Tx, labId: string, unitId: string) {
   const rows = await tx.select({ id: units.id, clientId: units.organisationId }).from(units)
     .where(and(eq(units.id, unitId), eq(units.labId, labId))).for("update").limit(1);
@@ -31,7 +47,7 @@ async function latestRevision(tx: Tx, unitId: string): Promise<Report | undefine
  * then the row is inserted. "exists" when the unit already has a report (supersede it instead).
  */
 export async function insertFirstRevision(labId: string, unitId: string, build: Build): Promise<Report | "missing" | "exists"> {
-  return getDb().transaction(async (tx) => {
+  return oneAtATimePerLab(labId, () => getDb().transaction(async (tx) => {
     const unit = await lockUnit(tx, labId, unitId);
     if (!unit) return "missing";
     if (await latestRevision(tx, unitId)) return "exists";
@@ -40,7 +56,7 @@ export async function insertFirstRevision(labId: string, unitId: string, build: 
     const [row] = await tx.insert(reports).values({ ...fields, labId, unitId, clientId: unit.clientId, number, revision: 1 }).returning();
     if (!row) throw new Error("The report row was not stored");
     return row;
-  });
+  }));
 }
 
 /** A new revision under the same number; the one before is marked superseded (a withdrawn one stays withdrawn) and points at it. */
