@@ -62,6 +62,7 @@ export async function supersedeReport(actor: Actor, input: z.output<typeof super
   const row = await insertNextRevision(actor.scope.labId, input.unitId, (n) => renderAndStore(actor.scope.labId, gathered, n, signature, input.reason));
   if (row === "missing") throw new HttpError(404, "No such unit.");
   if (row === "none") throw new HttpError(409, "This unit has no released report to replace: release one first.");
+  // Mail goes out from here once the outbox sender is wired: notifyReportEvent(row.id, "superseded").
   return row;
 }
 
@@ -75,5 +76,6 @@ export async function withdrawReport(actor: Actor, input: z.output<typeof withdr
   const row = await withdrawLatest(actor.scope.labId, input.unitId, { userId: actor.userId, reason: input.reason });
   if (row === "missing") throw new HttpError(404, "No such unit.");
   if (row === "none") throw new HttpError(409, "The latest revision is not valid: there is nothing to withdraw.");
+  // Mail goes out from here once the outbox sender is wired: notifyReportEvent(row.id, "withdrawn").
   return row;
 }
