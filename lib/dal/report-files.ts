@@ -2,7 +2,8 @@ import "server-only";
 import { z } from "zod";
 import { findReport, listUnitReports } from "@/db/queries/reports";
 import { HttpError } from "@/lib/auth/guards";
-import { gatherReportInputs } from "@/lib/server/reports/gather";
+import { getUnit } from "@/db/queries/units";
+import { gatherReportInputs, missingPlanSteps } from "@/lib/server/reports/gather";
 import { renderDraft } from "@/lib/server/reports/render";
 import { readReportPdf, sha256Hex } from "@/lib/server/report-store";
 import { SIGNING_ROLES } from "@/lib/reports/signature-meanings";
@@ -45,12 +46,14 @@ export type ReleasePanelView = {
 /** What the unit page's release panel shows; null for clients (they read released reports in their portal). */
 export async function getReleasePanelView(actor: Actor, unitId: string): Promise<ReleasePanelView | null> {
   if (actor.scope.kind !== "lab" || !z.uuid().safeParse(unitId).success) return null;
-  const [gathered, rows] = await Promise.all([gatherReportInputs(actor.scope.labId, unitId), listUnitReports(actor.scope, unitId)]);
-  if (!gathered) return null;
+  const found = await getUnit(actor.scope, unitId);
+  if (!found) return null;
+  const [missingSteps, rows] = await Promise.all([missingPlanSteps(actor.scope.labId, unitId, found.unit.ratingId), listUnitReports(actor.scope, unitId)]);
+  if (!missingSteps) return null;
   return {
     canSign: actor.role !== "station" && SIGNING_ROLES.release.includes(actor.role),
-    missingSteps: gathered.missingSteps,
-    disposition: gathered.base.unit.disposition,
+    missingSteps,
+    disposition: found.unit.disposition,
     revisions: rows.map((r) => ({
       id: r.id, number: r.number, revision: r.revision, status: r.status, releasedAt: r.releasedAt.toISOString(), sha256: r.sha256,
       reason: r.reason, withdrawReason: r.withdrawReason, pageCount: r.pageCount,

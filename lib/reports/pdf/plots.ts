@@ -37,7 +37,11 @@ function legend(doc: Doc, x: number, y: number, names: string[]): void {
   });
 }
 
-function decimate(values: readonly number[], reduce: (a: number, b: number) => number): number[] {
+const lowest = (a: number, b: number) => Math.min(a, b);
+const highest = (a: number, b: number) => Math.max(a, b);
+
+/** At most MAX_POINTS values, each the lowest or highest of its bucket, so peaks survive. */
+export function decimate(values: readonly number[], reduce: (a: number, b: number) => number): number[] {
   if (values.length <= MAX_POINTS) return [...values];
   const step = values.length / MAX_POINTS;
   return Array.from({ length: MAX_POINTS }, (_, i) => values.slice(Math.floor(i * step), Math.max(Math.floor(i * step) + 1, Math.floor((i + 1) * step))).reduce(reduce));
@@ -49,8 +53,8 @@ function drawWaveform(doc: Doc, preview: PlotData["preview"], units: Map<string,
     doc.font("regular").fontSize(8).fillColor(MUTED).text("No stored waveform for this capture.", x + 6, y + PLOT_HEIGHT / 2, { width: w - 12 });
     return;
   }
-  const t = decimate(preview.timeS, Math.min);
-  const series = preview.channels.map((c) => ({ id: c.id, min: decimate(c.min, Math.min), max: decimate(c.max, Math.max) }));
+  const t = decimate(preview.timeS, lowest);
+  const series = preview.channels.map((c) => ({ id: c.id, min: decimate(c.min, lowest), max: decimate(c.max, highest) }));
   const all = series.flatMap((s) => [...s.min, ...s.max]).filter(Number.isFinite);
   const peak = Math.max(1e-12, ...all.map(Math.abs));
   const t0 = t[0] as number;
@@ -61,7 +65,15 @@ function drawWaveform(doc: Doc, preview: PlotData["preview"], units: Map<string,
   series.forEach((s, i) => {
     const colour = COLOURS[i % COLOURS.length] as string;
     for (const line of [s.max, s.min]) {
-      line.forEach((v, k) => (k === 0 ? doc.moveTo(px(t[k] as number), py(v)) : doc.lineTo(px(t[k] as number), py(v))));
+      // A point that is not finite (or has no time) breaks the line there instead of reaching the PDF.
+      let open = false;
+      line.forEach((v, k) => {
+        const ti = t[k];
+        if (ti === undefined || !Number.isFinite(v) || !Number.isFinite(ti)) return void (open = false);
+        if (open) doc.lineTo(px(ti), py(v));
+        else doc.moveTo(px(ti), py(v));
+        open = true;
+      });
       doc.lineWidth(0.6).strokeColor(colour).stroke();
     }
   });
@@ -81,7 +93,7 @@ function drawSpectrum(doc: Doc, spectrum: PlotData["spectrum"], x: number, y: nu
   }
   const maxOrder = Math.min(50, Math.max(...channels.flatMap((c) => c.orders)));
   const percent = (c: (typeof channels)[number], k: number) => (100 * (c.rms[k] ?? 0)) / (c.rms[0] as number);
-  const top = Math.max(0.1, ...channels.flatMap((c) => c.orders.map((o, k) => (o > 1 && o <= maxOrder ? percent(c, k) : 0))));
+  const top = Math.max(0.1, ...channels.flatMap((c) => c.orders.map((o, k) => (o > 1 && o <= maxOrder ? percent(c, k) : 0))).filter(Number.isFinite));
   const slot = w / Math.max(1, maxOrder - 1);
   const bar = Math.max(0.4, (slot * 0.8) / channels.length);
   channels.forEach((c, ci) => {
@@ -89,7 +101,7 @@ function drawSpectrum(doc: Doc, spectrum: PlotData["spectrum"], x: number, y: nu
     c.orders.forEach((order, k) => {
       if (order < 2 || order > maxOrder) return;
       const h = (percent(c, k) / top) * (PLOT_HEIGHT - 8);
-      if (h > 0.05) doc.rect(x + (order - 2) * slot + slot * 0.1 + ci * bar, y + PLOT_HEIGHT - h, bar, h).fill(colour);
+      if (Number.isFinite(h) && h > 0.05) doc.rect(x + (order - 2) * slot + slot * 0.1 + ci * bar, y + PLOT_HEIGHT - h, bar, h).fill(colour);
     });
   });
   doc.font("regular").fontSize(7).fillColor(MUTED)

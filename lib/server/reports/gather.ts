@@ -68,3 +68,12 @@ export async function gatherReportInputs(labId: string, unitId: string): Promise
     missingSteps: steps.length === 0 ? ["(the rating has no test plan)"] : missingSteps,
   };
 }
+
+/** The plan steps without a capture of record, without reading any analysis (for the unit page). */
+export async function missingPlanSteps(labId: string, unitId: string, ratingId: string): Promise<string[] | null> {
+  const [plan, steps] = await Promise.all([evaluateUnitPlan({ kind: "lab", labId }, unitId), listActivePlanSteps(ratingId)]);
+  if (!plan) return null;
+  if (steps.length === 0) return ["(the rating has no test plan)"];
+  const recorded = new Set(plan.steps.filter((s) => s.record).map((s) => s.stepId));
+  return steps.filter((s) => !recorded.has(s.id)).map((s) => s.name);
+}

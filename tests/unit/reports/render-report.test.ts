@@ -7,6 +7,7 @@ import { describe, expect, it } from "vitest";
 import QRCode from "qrcode";
 import { limitWords } from "@/lib/reports/build-content";
 import { reportContentSchema, type ReportContent } from "@/lib/reports/content";
+import { decimate } from "@/lib/reports/pdf/plots";
 import { renderReportPdf } from "@/lib/reports/pdf/render-report";
 
 // The report drawing on its own: long tables over several pages, the running head, DRAFT, the QR code.
@@ -80,6 +81,31 @@ describe("renderReportPdf(content, options)", () => {
     });
     const rects = streams.map((s) => (s.match(/ re\b/g) ?? []).length);
     expect(Math.max(...rects)).toBeGreaterThanOrEqual(dark);
+  }, 30_000);
+});
+
+describe("decimate(values, reduce) and the plots", () => {
+  it("decimate keeps each bucket's extreme of a 2000-point envelope in 600 points", () => {
+    const values = Array.from({ length: 2000 }, (_, i) => Math.sin(i / 50));
+    const high = decimate(values, (a, b) => Math.max(a, b));
+    const low = decimate(values, (a, b) => Math.min(a, b));
+    expect(high).toHaveLength(600);
+    expect(high.every(Number.isFinite)).toBe(true);
+    expect(Math.max(...high)).toBe(Math.max(...values));
+    expect(Math.min(...low)).toBe(Math.min(...values));
+  });
+
+  it("renderReportPdf draws a stored 2000-point preview and its spectrum for a step", async () => {
+    const n = 2000;
+    const timeS = Array.from({ length: n }, (_, i) => i / 10_000);
+    const wave = (k: number) => timeS.map((t) => 325 * Math.sin(2 * Math.PI * 50 * t - (k * 2 * Math.PI) / 3));
+    const preview = { timeS, channels: [0, 1, 2].map((k) => ({ id: `V${k}`, min: wave(k), max: wave(k) })) };
+    const spectrum = { frequencyHz: 50, channels: [{ id: "V0", unit: "V", orders: [1, 3, 5, 7], rms: [230, 1, 2, 0.5] }] };
+    const { bytes } = await renderReportPdf(content(2), { verifyUrl: null, draft: true, plots: new Map([["s1", { preview, spectrum }]]) });
+    const text = pages(bytes, 1).join(" ");
+    expect(text).toContain("Waveform (min/max envelope)");
+    expect(text).not.toContain("No stored waveform");
+    expect(text).not.toContain("No stored spectrum");
   }, 30_000);
 });
 
