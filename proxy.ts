@@ -1,10 +1,8 @@
 import { getToken } from "next-auth/jwt";
 import { NextResponse, type NextRequest } from "next/server";
 import { hasValidEscapes } from "@/lib/auth/request-checks";
-import { rolesForPath } from "@/lib/auth/roles";
+import { isPublicPage, rolesForPath } from "@/lib/auth/roles";
 import { getEnv } from "@/lib/server/env";
-
-const PUBLIC_PAGES = /^\/(sign-in|forgot-password|set-password|access-denied)(\/|$)/;
 
 // First line of defence only: every page, action, handler and DAL function checks again.
 export async function proxy(request: NextRequest) {
@@ -15,7 +13,7 @@ export async function proxy(request: NextRequest) {
       ? NextResponse.json({ error: "The address has a broken %-escape" }, { status: 400 })
       : new NextResponse("Bad request: the address has a broken %-escape.", { status: 400, headers: { "content-type": "text/plain; charset=utf-8" } });
   }
-  if (pathname.startsWith("/api/") || PUBLIC_PAGES.test(pathname)) return NextResponse.next();
+  if (pathname.startsWith("/api/") || isPublicPage(pathname)) return NextResponse.next();
   const token = await getToken({ req: request, secret: getEnv().NEXTAUTH_SECRET });
   if (!token) {
     const url = new URL("/sign-in", request.url);

@@ -15,10 +15,11 @@ const ITEMS: Record<string, NavItem> = {
   instruments: { href: "/admin/instruments", label: "Instruments" },
   people: { href: "/admin/people", label: "People" },
   mailbox: { href: "/admin/mailbox", label: "Outbox" },
+  lab: { href: "/admin/lab", label: "Lab settings" },
 };
 
 const BY_ROLE: Record<Role, (keyof typeof ITEMS)[]> = {
-  admin: ["home", "units", "captures", "upload", "review", "trends", "ratings", "stations", "instruments", "clients", "people", "mailbox"],
+  admin: ["home", "units", "captures", "upload", "review", "trends", "ratings", "stations", "instruments", "clients", "people", "mailbox", "lab"],
   operator: ["home", "upload", "captures", "units", "ratings", "stations"],
   qa: ["home", "review", "units", "captures", "trends", "ratings", "instruments"],
   manufacturer: ["home", "units"],

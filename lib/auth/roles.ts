@@ -14,6 +14,13 @@ export function isLabRole(role: Role): boolean {
   return (LAB_ROLES as readonly Role[]).includes(role);
 }
 
+/** Pages open without signing in: the sign-in flow and the public verification of released reports. */
+const PUBLIC_PAGES = /^\/(sign-in|forgot-password|set-password|access-denied|verify)(\/|$)/;
+
+export function isPublicPage(pathname: string): boolean {
+  return PUBLIC_PAGES.test(pathname);
+}
+
 /** Path prefixes and the roles that may open them; checked in proxy.ts and again by every guard. */
 export const PATH_RULES: ReadonlyArray<{ prefix: string; roles: readonly Role[] }> = [
   // The instrument register: lab managers keep it, quality engineers read it (checked before "/admin").

@@ -36,17 +36,15 @@ test("a quality engineer finds an out-of-tolerance unit in the review queue and 
   await expect(page.getByRole("link", { name: FAILING_SERIAL })).toHaveCount(0);
 });
 
-test("a client downloads its own unit's test record as PDF and CSV, but not another organisation's", async ({ page }) => {
+test("a client downloads its own unit's verdicts as CSV but no draft PDF, and nothing of another organisation's", async ({ page }) => {
   await signIn(page, "kestrum");
   await openWhenAnalysed(page, FAILING_SERIAL);
   await expect(page.getByText("Record disposition")).toHaveCount(0);
-
-  const pdfDownload = page.waitForEvent("download");
-  await page.getByRole("link", { name: "Test record (PDF)" }).click();
-  const pdf = await pdfDownload;
-  expect(pdf.suggestedFilename()).toBe(`emfolio-${FAILING_SERIAL}.pdf`);
+  // Drafts are the lab's own: no link, and the route answers as for a missing unit.
+  await expect(page.getByRole("link", { name: "Draft report (PDF)" })).toHaveCount(0);
 
   const unitPath = new URL(page.url()).pathname;
+  expect((await page.request.get(`/api${unitPath}/report.pdf`)).status()).toBe(404);
   const csv = await page.request.get(`/api${unitPath}/report.csv`);
   expect(csv.status()).toBe(200);
   const text = await csv.text();

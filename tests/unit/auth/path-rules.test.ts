@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { PATH_RULES, ROLES, rolesForPath } from "@/lib/auth/roles";
+import { PATH_RULES, ROLES, isPublicPage, rolesForPath } from "@/lib/auth/roles";
 import { hasValidEscapes, originAllowed } from "@/lib/auth/request-checks";
 
 // The agreed access table, written out by hand (not derived from PATH_RULES): adding or removing a
@@ -7,6 +7,7 @@ import { hasValidEscapes, originAllowed } from "@/lib/auth/request-checks";
 const TABLE: Record<string, string> = {
   "/admin/people": "A",
   "/admin/mailbox": "A",
+  "/admin/lab": "A",
   "/upload": "AO",
   "/review": "AQ",
   "/trends": "AQ",
@@ -40,6 +41,18 @@ describe("rolesForPath(pathname) for every role", () => {
     expect(rolesForPath("/")).toBeNull();
     expect(rolesForPath("/uploads")).toBeNull();
     expect(rolesForPath("/reviewer")).toBeNull();
+  });
+});
+
+describe("isPublicPage(pathname)", () => {
+  it.each([
+    ["/sign-in", true], ["/forgot-password", true], ["/set-password/abc", true], ["/access-denied", true],
+    ["/verify", true], ["/verify/HARROWGA-000001", true],
+    ["/verifyx", false], ["/units", false], ["/reports", false], ["/admin/lab", false], ["/", false], ["/api/reports/x/pdf", false],
+  ])("isPublicPage(%j) is %j", (path, open) => expect(isPublicPage(path)).toBe(open));
+
+  it("isPublicPage opens no path that a rule restricts", () => {
+    for (const rule of PATH_RULES) expect(isPublicPage(rule.prefix), rule.prefix).toBe(false);
   });
 });
 

@@ -1,11 +1,6 @@
-import { execFileSync } from "node:child_process";
-import { existsSync, mkdtempSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import path from "node:path";
 import { describe, expect, it } from "vitest";
 import type { UnitRecord } from "@/lib/dal/unit-report";
 import { renderUnitCsv } from "@/lib/server/reports/unit-csv";
-import { renderUnitPdf } from "@/lib/server/reports/unit-pdf";
 
 const verdict = (check: string, label: string, measured: number | string | null, status: "pass" | "marginal" | "fail" | "not-applicable") => ({
   check, label, measured, unit: "%", lower: null, upper: 5, status, basis: "line-line", source: "test",
@@ -33,19 +28,5 @@ describe("renderUnitCsv(record)", () => {
     expect(lines[0]).toMatch(/^serial,model,capture_id,/);
     expect(lines[1]).toContain("KG45-260301,KG-45T,c1,2026-11-30T09:00:00.000Z,no-load,1500,t,thd,\"THD, worst line\",2.5,%,,5,pass,line-line");
     expect(lines[2]).toContain(`"'=HYPERLINK(""x""), ""quoted""",'=1+1,`);
-  });
-});
-
-describe("renderUnitPdf(record)", () => {
-  it("produces a PDF whose text carries the serial, the verdict words and the advisory note", async () => {
-    const pdf = await renderUnitPdf(record());
-    expect(pdf.subarray(0, 5).toString()).toBe("%PDF-");
-    expect(existsSync("/usr/bin/pdftotext"), "poppler-utils (installed by scripts/services/ensure-packages.sh)").toBe(true);
-    const dir = mkdtempSync(path.join(tmpdir(), "emfolio-pdf-"));
-    writeFileSync(path.join(dir, "r.pdf"), pdf);
-    const text = execFileSync("/usr/bin/pdftotext", [path.join(dir, "r.pdf"), "-"]).toString();
-    expect(text).toContain("KG45-260301");
-    expect(text).toContain("Outside");
-    expect(text).toContain("Advisory measurements");
   });
 });

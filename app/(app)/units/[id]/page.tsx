@@ -12,6 +12,8 @@ import { RecordChoice } from "./_components/record-choice";
 import { UnitAdminPanel } from "./_components/unit-admin-panel";
 import { UnitAttachments } from "./_components/unit-attachments";
 import { UnitHistory } from "./_components/unit-history";
+import { ReleasePanel } from "./_components/release-panel";
+import { requirePageActor } from "@/lib/dal/actor";
 
 export default async function UnitPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
@@ -19,9 +21,11 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
   // Another organisation's unit is indistinguishable from a missing one.
   if (!view) notFound();
   const { unit, rating, owner } = view;
-  const [history, captureRows, plan, ratingChoices] = await Promise.all([
-    getUnitHistoryView(unit.id), getUnitCaptureRows(unit.id), getUnitPlanView(unit.id), getUnitRatingChoices(),
+  const [history, captureRows, plan, ratingChoices, actor] = await Promise.all([
+    getUnitHistoryView(unit.id), getUnitCaptureRows(unit.id), getUnitPlanView(unit.id), getUnitRatingChoices(), requirePageActor(),
   ]);
+  // Drafts are the lab's own; a client reads released reports only.
+  const isLab = actor.scope.kind === "lab";
   return (
     <>
       <PageHeader
@@ -29,7 +33,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
         lead={`${rating.modelCode} · ${rating.title} · ${owner}`}
         actions={
           <>
-            <a href={`/api/units/${unit.id}/report.pdf`} className="rounded-md bg-copper-600 px-3 py-2 text-sm font-semibold text-white no-underline">Test record (PDF)</a>
+            {isLab ? <a href={`/api/units/${unit.id}/report.pdf`} className="rounded-md bg-copper-600 px-3 py-2 text-sm font-semibold text-white no-underline">Draft report (PDF)</a> : null}
             <a href={`/api/units/${unit.id}/report.csv`} className="rounded-md bg-white px-3 py-2 text-sm font-semibold no-underline ring-1 ring-ink-200">Verdicts (CSV)</a>
           </>
         }
@@ -48,6 +52,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
         <h2 id="captures" className="mb-3 font-semibold">Captures</h2>
         <UnitCapturesTable rows={captureRows} />
       </section>
+      <ReleasePanel unitId={unit.id} />
       <UnitAttachments unitId={unit.id} />
       {history.canDisposition && ratingChoices.length > 0 ? (
         <UnitAdminPanel unitId={unit.id} serial={unit.serial} ratingId={unit.ratingId} retired={unit.retiredAt !== null} ratings={ratingChoices} />

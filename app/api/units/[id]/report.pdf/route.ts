@@ -1,16 +1,15 @@
-import { HttpError } from "@/lib/auth/guards";
-import { getUnitRecord } from "@/lib/dal/unit-report";
-import { renderUnitPdf } from "@/lib/server/reports/unit-pdf";
+import { requireSessionActor } from "@/lib/dal/actor";
+import { renderUnitDraft } from "@/lib/dal/report-files";
 import { apiRoute } from "@/lib/dal/route-handler";
 
+// The lab's draft of the unit's report (DRAFT on every page); clients get 404 and read released reports only.
 export const GET = apiRoute(async (_request: Request, { params }: { params: Promise<{ id: string }> }) => {
-  const record = await getUnitRecord((await params).id);
-  if (!record) throw new HttpError(404, "No such unit.");
-  const pdf = await renderUnitPdf(record);
-  return new Response(new Uint8Array(pdf), {
+  const actor = await requireSessionActor();
+  const { bytes, fileName } = await renderUnitDraft(actor, (await params).id);
+  return new Response(new Uint8Array(bytes), {
     headers: {
       "content-type": "application/pdf",
-      "content-disposition": `attachment; filename="emfolio-${record.serial.replace(/[^\w.-]/g, "_")}.pdf"`,
+      "content-disposition": `attachment; filename="${fileName}"`,
       "cache-control": "private, no-store",
     },
   });
