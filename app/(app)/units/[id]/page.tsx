@@ -4,6 +4,8 @@ import { PageHeader } from "@/components/shell/page-header";
 import { StatusTag } from "@/components/ui/status-tag";
 import { getUnitCaptureRows } from "@/lib/dal/captures";
 import { getUnitHistoryView } from "@/lib/dal/review";
+import { getUnitNotesView } from "@/lib/dal/unit-notes";
+import { DISPOSITION_WORDS, whyNotWithin } from "@/lib/units/disposition-rules";
 import { getUnitRatingChoices, getUnitView } from "@/lib/dal/units";
 import { PLAN_STATE_WORDS, PlanPanel } from "@/components/units/plan-panel";
 import { getUnitPlanView } from "@/lib/dal/unit-plan";
@@ -12,6 +14,7 @@ import { RecordChoice } from "./_components/record-choice";
 import { UnitAdminPanel } from "./_components/unit-admin-panel";
 import { UnitAttachments } from "./_components/unit-attachments";
 import { UnitHistory } from "./_components/unit-history";
+import { UnitNotes } from "./_components/unit-notes";
 
 export default async function UnitPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
@@ -19,8 +22,8 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
   // Another organisation's unit is indistinguishable from a missing one.
   if (!view) notFound();
   const { unit, rating, owner } = view;
-  const [history, captureRows, plan, ratingChoices] = await Promise.all([
-    getUnitHistoryView(unit.id), getUnitCaptureRows(unit.id), getUnitPlanView(unit.id), getUnitRatingChoices(),
+  const [history, captureRows, plan, ratingChoices, notes] = await Promise.all([
+    getUnitHistoryView(unit.id), getUnitCaptureRows(unit.id), getUnitPlanView(unit.id), getUnitRatingChoices(), getUnitNotesView(unit.id),
   ]);
   return (
     <>
@@ -37,7 +40,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
       <dl className="grid grid-cols-2 gap-4 rounded-lg bg-white p-5 text-sm shadow-sm ring-1 ring-ink-200 md:grid-cols-4">
         <div><dt className="text-ink-600">Latest verdict</dt><dd className="mt-1"><StatusTag status={unit.latestOverall} /></dd></div>
         <div><dt className="text-ink-600">Test plan</dt><dd className="mt-1 font-semibold">{plan ? PLAN_STATE_WORDS[plan.state] : "—"}</dd></div>
-        <div><dt className="text-ink-600">Disposition</dt><dd className="mt-1 font-semibold">{unit.disposition}</dd></div>
+        <div><dt className="text-ink-600">Disposition</dt><dd className="mt-1 font-semibold" data-testid="unit-disposition">{DISPOSITION_WORDS[unit.disposition]}</dd></div>
         <div><dt className="text-ink-600">Registered</dt><dd className="mt-1">{unit.createdAt.toISOString().slice(0, 10)}</dd></div>
         <div><dt className="text-ink-600">Model</dt><dd className="mt-1 font-mono">{rating.modelCode}</dd></div>
       </dl>
@@ -60,8 +63,9 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
           <h2 id="decisions" className="mb-3 font-semibold">Decisions</h2>
           <UnitHistory events={history.events} />
         </div>
-        {history.canDisposition ? <DispositionPanel unitId={unit.id} current={unit.disposition} /> : null}
+        {history.canDisposition ? <DispositionPanel unitId={unit.id} current={unit.disposition} withinNote={whyNotWithin(unit)} /> : null}
       </section>
+      <UnitNotes unitId={unit.id} notes={notes.notes} clientNotes={notes.clientNotes} canWrite={notes.canWrite} />
     </>
   );
 }
