@@ -143,11 +143,11 @@ describe("changeDisposition: who may sign", () => {
 
   it("changeDisposition answers 404 for another lab's or a missing unit", async () => {
     const { secondLab } = await seededOrgs();
-    const other = (await seededRating(secondLab.id, "KG-45T").catch(() => null))?.rating;
-    if (other) {
-      const foreign = await makeUnit(other, { planState: "complete-within", latestOverall: "pass" });
-      expect((await refusal(() => changeDisposition(signerActor, input(foreign.id, { reason: "Not ours" }), nextAddress()))).status).toBe("404");
-    }
+    // The second seeded lab tests the same client's KG-45T (db/seed-data.ts secondLab).
+    const other = (await seededRating(secondLab.id, "KG-45T")).rating;
+    const foreign = await makeUnit(other, { planState: "complete-within", latestOverall: "pass" });
+    expect((await refusal(() => changeDisposition(signerActor, input(foreign.id, { reason: "Not ours" }), nextAddress()))).status).toBe("404");
+    expect(await dispositionOf(foreign.id)).toBe("open");
     expect((await refusal(() => changeDisposition(signerActor, input("00000000-0000-4000-8000-000000000000", { reason: "Nobody" }), nextAddress()))).status).toBe("404");
   });
 });

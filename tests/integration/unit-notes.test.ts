@@ -46,6 +46,14 @@ function textOf(value: unknown): string {
 
 const params = (id: string) => ({ params: Promise.resolve({ id }) });
 
+/** A route's body, after checking it answered 200. */
+async function bodyOf(response: Promise<Response>): Promise<string> {
+  const r = await response;
+  const text = await r.text();
+  expect(r.status, text).toBe(200);
+  return text;
+}
+
 beforeAll(async () => {
   const { lab } = await seededOrgs();
   const { rating } = await seededRating(lab.id, "KG-45T");
@@ -91,10 +99,12 @@ describe("what a client user can reach for the unit", () => {
       captureRows: await getUnitCaptureRows(unitId),
       captureView: await getCaptureStatusView(await actorForStoredUser(client.id), captureId),
       record: await getUnitRecord(unitId),
-      unitApi: await (await unitRoute(new Request(`http://test/api/units/${unitId}`), params(unitId))).text(),
-      unitCsv: await (await unitCsvRoute(new Request(`http://test/api/units/${unitId}/report.csv`), params(unitId))).text(),
-      captureApi: await (await captureRoute(new Request(`http://test/api/captures/${captureId}`), params(captureId))).text(),
+      unitApi: await bodyOf(unitRoute(new Request(`http://test/api/units/${unitId}`), params(unitId))),
+      unitCsv: await bodyOf(unitCsvRoute(new Request(`http://test/api/units/${unitId}/report.csv`), params(unitId))),
+      captureApi: await bodyOf(captureRoute(new Request(`http://test/api/captures/${captureId}`), params(captureId))),
     };
+    // Each read answered the client (a refusal would hide nothing and prove nothing).
+    for (const [where, value] of Object.entries(reached)) expect(value, where).toBeTruthy();
     for (const [where, value] of Object.entries(reached)) {
       const text = textOf(value);
       expect(text, where).not.toContain(INTERNAL);
