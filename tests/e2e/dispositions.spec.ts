@@ -25,11 +25,26 @@ test("a quality engineer cannot plainly accept an outside unit, then accepts it 
   await signOut(page);
 
   await signIn(page, "qa");
+  // The review queue names what is outside, with measured value and limit; the engineer takes the unit.
+  await expect(async () => {
+    await page.goto("/review");
+    await expect(page.getByTestId("queue-row").filter({ hasText: serial })).toContainText("THD", { timeout: 1000 });
+  }).toPass({ timeout: 60_000 });
+  await page.waitForLoadState("networkidle");
+  const row = page.getByTestId("queue-row").filter({ hasText: serial });
+  await expect(row).toContainText(/THD.*outside, measured .*limit at most/);
+  await row.getByLabel(`Select ${serial}`).check();
+  await page.getByRole("button", { name: "Take the ticked units" }).click();
+  await expect(page.getByText("You took 1 unit.")).toBeVisible();
+  await expect(page.getByTestId("queue-row").filter({ hasText: serial })).toContainText("Assigned to you");
+
   await page.goto(`/units?q=${serial}`);
   await expect(page.getByRole("row", { name: new RegExp(serial) }).getByText("Outside")).toBeVisible({ timeout: 30_000 });
   await page.getByRole("link", { name: serial }).click();
   await expect(page.getByRole("heading", { name: `Unit ${serial}` })).toBeVisible();
 
+  // Interact once React has hydrated the form (a click before that posts the form without the page's script).
+  await page.waitForLoadState("networkidle");
   const panel = page.getByRole("form", { name: "Disposition" });
   await panel.getByLabel("New disposition").selectOption("accepted");
   await panel.getByLabel("Reason for the record").fill("Customer wants it shipped");
@@ -37,6 +52,7 @@ test("a quality engineer cannot plainly accept an outside unit, then accepts it 
   await expect(panel.getByText(/Plain acceptance is refused: .*latest verdict is outside tolerance/).first()).toBeVisible();
   await expect(page.getByTestId("unit-disposition")).toHaveText("open (no decision)");
 
+  await page.waitForLoadState("networkidle");
   await panel.getByLabel("New disposition").selectOption("accepted-with-concession");
   await panel.getByLabel("Reason for the record").fill("THD 8 % accepted by the client for bench use only");
   await panel.getByLabel("Client's concession reference").fill(`KC-${run}`);

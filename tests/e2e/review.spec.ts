@@ -22,10 +22,13 @@ test("a quality engineer finds an out-of-tolerance unit in the review queue and 
   await page.goto("/review");
   await page.getByRole("link", { name: FAILING_SERIAL }).click();
 
+  // Interact once React has hydrated the form (a click before that posts the form without the page's script).
+  await page.waitForLoadState("networkidle");
   await page.getByLabel("New disposition").selectOption("rework");
   await page.getByRole("button", { name: "Record disposition" }).click();
   await expect(page.getByText(/Every change of disposition needs a reason/).first()).toBeVisible();
 
+  await page.waitForLoadState("networkidle");
   await page.getByLabel("Reason for the record").fill("5th and 7th harmonics high: return rotor for skew check.");
   await page.getByRole("button", { name: "Record disposition" }).click();
   await expect(page.getByText("Disposition recorded: returned for rework.")).toBeVisible();

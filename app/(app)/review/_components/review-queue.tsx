@@ -23,7 +23,7 @@ function Findings({ unit }: { unit: QueueUnit }) {
         <li key={`${f.check}-${i}`}>
           <span className="font-semibold">{f.label}</span>{f.step ? ` (${f.step})` : ""}: {f.status === "fail" ? "outside" : "inconclusive"}, measured {f.measured}, limit {f.limit}
           {f.exceedance ? `, ${describeExceedance(f.exceedance, f.unit)}` : ""}
-          {f.status === "inconclusive" && f.reason ? ` (${f.reason})` : ""}
+          {f.status === "inconclusive" && f.reason ? ` (${f.reason.length > 140 ? `${f.reason.slice(0, 140)}…` : f.reason})` : ""}
         </li>
       ))}
       {unit.missingSteps.length > 0 ? <li><span className="font-semibold">Plan steps missing:</span> {unit.missingSteps.join(", ")}</li> : null}
