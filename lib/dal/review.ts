@@ -5,10 +5,9 @@ import { listCurrentVerdicts } from "@/db/queries/review-checks";
 import { assignUnits, listReviewers } from "@/db/queries/unit-assignments";
 import { listReviewQueue, listUnitEvents } from "@/db/queries/unit-events";
 import { evaluateUnitPlan } from "@/db/queries/unit-plan";
-import { HttpError, requireUser } from "@/lib/auth/guards";
+import { HttpError } from "@/lib/auth/guards";
 import { findingsOf, type CheckFinding, type JudgedCheck } from "@/lib/units/check-exceedance";
-import type { Actor } from "./actor";
-import { scopeFor } from "./scope";
+import { requirePageActor, type Actor } from "./actor";
 
 type LabScope = Actor["scope"] & { kind: "lab" };
 
@@ -77,12 +76,17 @@ export type HistoryEvent = {
  * concession reference and the signer's role and meaning, never staff names, comments or other events.
  */
 export async function getUnitHistoryView(unitId: string): Promise<{ events: HistoryEvent[]; canDisposition: boolean }> {
-  const user = await requireUser();
-  if (!z.uuid().safeParse(unitId).success) return { events: [], canDisposition: false };
-  const scope = scopeFor(user);
-  const rows = await listUnitEvents(scope, unitId);
-  const client = scope.kind !== "lab";
-  const events = rows
+  const actor = await requirePageActor();
+  const events = await unitHistoryFor(actor, unitId);
+  return { events, canDisposition: actor.scope.kind === "lab" && (actor.role === "qa" || actor.role === "admin") };
+}
+
+/** The same history for any authorised caller (a client's API token included): a client gets the reduced view. */
+export async function unitHistoryFor(actor: Actor, unitId: string): Promise<HistoryEvent[]> {
+  if (!z.uuid().safeParse(unitId).success) return [];
+  const rows = await listUnitEvents(actor.scope, unitId);
+  const client = actor.scope.kind !== "lab";
+  return rows
     .filter((e) => !client || e.kind === "disposition")
     .map((e): HistoryEvent => ({
       id: e.id, kind: e.kind, from: e.from, to: e.to, at: e.at, concessionRef: e.concessionRef,
@@ -90,5 +94,4 @@ export async function getUnitHistoryView(unitId: string): Promise<{ events: Hist
       signature: e.signedAt && e.signerRole && e.meaning ? { name: client ? null : e.signerName, role: e.signerRole, at: e.signedAt, meaning: e.meaning } : null,
       detail: client ? null : typeof e.detail?.assignee === "string" ? e.detail.assignee : null,
     }));
-  return { events, canDisposition: !client && (user.role === "qa" || user.role === "admin") };
 }

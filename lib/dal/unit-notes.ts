@@ -1,10 +1,9 @@
 import "server-only";
 import { z } from "zod";
 import { insertUnitNote, listUnitNotes } from "@/db/queries/unit-notes";
-import { HttpError, requireUser } from "@/lib/auth/guards";
+import { HttpError } from "@/lib/auth/guards";
 import { clientVisibleNotes, type ClientNote } from "@/lib/units/client-notes";
-import type { Actor } from "./actor";
-import { scopeFor } from "./scope";
+import { requirePageActor, type Actor } from "./actor";
 
 export const noteFormSchema = z.object({
   unitId: z.uuid("Pick a unit"),
@@ -27,10 +26,14 @@ export type NoteView = { id: string; visibility: "internal" | "client"; body: st
  * for it, without authors (filtered in the query and again by clientVisibleNotes).
  */
 export async function getUnitNotesView(unitId: string): Promise<{ notes: NoteView[] | null; clientNotes: ClientNote[]; canWrite: boolean }> {
-  const user = await requireUser();
+  return unitNotesFor(await requirePageActor(), unitId);
+}
+
+/** The same for any authorised caller (a client's API token included): a client gets clientNotes only. */
+export async function unitNotesFor(actor: Actor, unitId: string): Promise<{ notes: NoteView[] | null; clientNotes: ClientNote[]; canWrite: boolean }> {
   if (!z.uuid().safeParse(unitId).success) return { notes: null, clientNotes: [], canWrite: false };
-  const scope = scopeFor(user);
+  const scope = actor.scope;
   const rows = await listUnitNotes(scope, unitId);
-  if (scope.kind !== "lab") return { notes: null, clientNotes: clientVisibleNotes(rows), canWrite: false };
+  if (scope.kind !== "lab" || actor.role === "station") return { notes: null, clientNotes: clientVisibleNotes(rows), canWrite: false };
   return { notes: rows, clientNotes: clientVisibleNotes(rows), canWrite: true };
 }

@@ -7,7 +7,8 @@ import { HttpError } from "@/lib/auth/guards";
 import type { SessionUser } from "@/lib/auth/options";
 import { actorForStoredUser, requireStationActor, type Actor } from "@/lib/dal/actor";
 import { changeDisposition, changeDispositions, type DispositionInput } from "@/lib/dal/dispositions";
-import { getUnitHistoryView } from "@/lib/dal/review";
+import { assignForReview, getUnitHistoryView } from "@/lib/dal/review";
+import { addUnitNote } from "@/lib/dal/unit-notes";
 import { InputError } from "@/lib/dal/setup-access";
 import { signWithPassword } from "@/lib/dal/signatures";
 import { seededOrgs } from "./helpers";
@@ -119,6 +120,13 @@ describe("changeDisposition: the rules", () => {
     expect(await changeDisposition(signerActor, input(unit.id, { to: "open", reason: "Scrapped in error", password: PASSWORD }), nextAddress())).toEqual({ to: "open", signed: true });
     const purposes = (await getDb().select().from(signatures).where(eq(signatures.subjectId, unit.id))).map((s) => s.purpose).sort();
     expect(purposes).toEqual(["reopen", "scrap"]);
+  });
+
+  it("addUnitNote and assignForReview still work on a closed unit: a disposition blocks nothing else", async () => {
+    const unit = await makeUnit(rating, { planState: "complete-within", latestOverall: "fail" });
+    await changeDisposition(signerActor, input(unit.id, { to: "scrapped", reason: "Housing cracked", password: PASSWORD }), nextAddress());
+    expect((await addUnitNote(signerActor, { unitId: unit.id, visibility: "internal", body: "Kept for the failure study" })).unitId).toBe(unit.id);
+    expect(await assignForReview(signerActor, { unitIds: [unit.id], assigneeId: signer.id })).toBe(1);
   });
 });
 

@@ -4,6 +4,7 @@ import { useActionState, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, Select, TextArea, TextInput } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { CLOSED_DISPOSITIONS } from "@/lib/units/disposition-rules";
 import { setDisposition, type DispositionState } from "../actions";
 
 export const DISPOSITION_LABELS = {
@@ -15,11 +16,10 @@ export const DISPOSITION_LABELS = {
 } as const;
 
 type DispositionKey = keyof typeof DISPOSITION_LABELS;
-const CLOSED: readonly DispositionKey[] = ["accepted", "accepted-with-concession", "scrapped"];
 
 /** Which choices are signed: a concession, a scrap and reopening a closed unit (the server decides again). */
 function needsSignature(current: DispositionKey, to: DispositionKey): boolean {
-  return to === "accepted-with-concession" || to === "scrapped" || (to === "open" && CLOSED.includes(current));
+  return to === "accepted-with-concession" || to === "scrapped" || (to === "open" && CLOSED_DISPOSITIONS.includes(current));
 }
 
 export function DispositionPanel({ unitId, current, withinNote }: { unitId: string; current: DispositionKey; withinNote: string | null }) {
