@@ -50,14 +50,14 @@ export async function getReviewQueueView(actor: Actor) {
 
 export const assignSchema = z.object({
   unitIds: z.array(z.uuid("Pick units from the list")).min(1, "Tick at least one unit").max(200, "At most 200 units at once"),
-  assigneeId: z.uuid("Pick a quality engineer"),
+  assigneeId: z.uuid("Pick who reviews the units"),
 });
 
 /** Gives units to a quality engineer of the lab ("take" is assigning to oneself). Returns how many were assigned. */
 export async function assignForReview(actor: Actor, input: z.output<typeof assignSchema>): Promise<number> {
   const { scope, userId } = requireReviewer(actor);
   const outcome = await assignUnits(scope, [...new Set(input.unitIds)], input.assigneeId, userId);
-  if (outcome === "no-assignee") throw new HttpError(422, "Units can be assigned only to an enabled quality engineer of your lab.");
+  if (outcome === "no-assignee") throw new HttpError(422, "Units can be assigned only to an enabled quality engineer or lab manager of your lab.");
   if (outcome === 0) throw new HttpError(404, "None of those units is one your lab tests.");
   return outcome;
 }

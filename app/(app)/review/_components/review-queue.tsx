@@ -69,7 +69,7 @@ export function ReviewQueue({ units, reviewers }: { units: QueueUnit[]; reviewer
         <div className="space-y-2">
           <Field label="Assign to">
             <Select name="assigneeId" defaultValue="">
-              <option value="">Choose a quality engineer</option>
+              <option value="">Choose a reviewer</option>
               {reviewers.map((r) => <option key={r.id} value={r.id}>{r.name}</option>)}
             </Select>
           </Field>
