@@ -1,20 +1,13 @@
 import { expect, test, type Page } from "@playwright/test";
 import { renderDemoCsv } from "../../scripts/demo/waveforms";
 import { makeThreePhaseCsv } from "../fixtures/pipeline/make-capture";
-import { signIn, signOut } from "./support";
+import { selectOptionContaining, signIn, signOut } from "./support";
 
 // Judgement a lab can sign, as its people use it in the browser. Needs the test server and the worker
 // that scripts/test.sh starts. Every test makes its own serials (and its own client and rating where it
 // edits a profile), so the specs pass in any order and twice in a row against the same database.
 
 const run = Date.now() % 1_000_000_000;
-
-/** Picks the option of a select whose text contains `part` (option labels carry title and owner). */
-async function selectOptionContaining(page: Page, label: string, part: string) {
-  const select = page.getByLabel(label);
-  const text = await select.locator("option", { hasText: part }).first().textContent();
-  await select.selectOption({ label: (text ?? "").trim() });
-}
 
 /** Uploads one file on /upload and waits for its analysis; returns the capture page's address. */
 async function uploadOne(page: Page, o: { serial: string; newRating?: string; testKind?: string; speed: string; name: string; csv: string }) {

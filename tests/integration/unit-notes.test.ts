@@ -10,7 +10,7 @@ import { actorForStoredUser } from "@/lib/dal/actor";
 import { getCaptureStatusView, getUnitCaptureRows } from "@/lib/dal/captures";
 import { changeDisposition } from "@/lib/dal/dispositions";
 import { getUnitHistoryView } from "@/lib/dal/review";
-import { getUnitNotesView } from "@/lib/dal/unit-notes";
+import { addUnitNote, getUnitNotesView } from "@/lib/dal/unit-notes";
 import { getUnitPlanView } from "@/lib/dal/unit-plan";
 import { getUnitRecord } from "@/lib/dal/unit-report";
 import { getUnitView } from "@/lib/dal/units";
@@ -76,7 +76,9 @@ describe("addNote", () => {
     expect(await addNote({ ok: false, message: "" }, form({ unitId, body: "no audience" }))).toMatchObject({ ok: false, message: expect.stringMatching(/internal \(lab only\) or for the client/) });
     expect(await addNote({ ok: false, message: "" }, form({ unitId, visibility: "client", body: "  " }))).toMatchObject({ ok: false, message: "Write the note" });
     session.current = client;
-    expect(await addNote({ ok: false, message: "" }, form({ unitId, visibility: "client", body: "from the client" }))).toMatchObject({ ok: false, message: "Only lab staff write notes on a unit." });
+    // The action refuses a client user before it reads the form; the DAL refuses one again on its own.
+    await expect(addNote({ ok: false, message: "" }, form({ unitId, visibility: "client", body: "from the client" }))).rejects.toThrow();
+    await expect(addUnitNote(await actorForStoredUser(client.id), { unitId, visibility: "client", body: "from the client" })).rejects.toMatchObject({ status: 403, message: "Only lab staff write notes on a unit." });
   });
 
   it("getUnitNotesView shows lab staff every note with its audience and author", async () => {

@@ -8,6 +8,7 @@ import { HttpError, requireRole } from "@/lib/auth/guards";
 import { requirePageActor } from "@/lib/dal/actor";
 import { bulkDispositionSchema, changeDispositions } from "@/lib/dal/dispositions";
 import { assignForReview, assignSchema } from "@/lib/dal/review";
+import { asForm } from "@/lib/forms/fields";
 import { DISPOSITION_WORDS } from "@/lib/units/disposition-rules";
 
 export type QueueState = { ok: boolean; message: string; results?: { unitId: string; ok: boolean; message: string }[] };
@@ -17,6 +18,7 @@ const firstMessage = (error: z.ZodError) => error.issues.map((i) => i.message).j
 
 /** The review queue's actions on the ticked units: take them, assign them, or give them one disposition with one reason. */
 export async function actOnQueue(_prev: QueueState, form: FormData): Promise<QueueState> {
+  form = asForm(form);
   await requireRole("qa", "admin");
   const intent = intentSchema.safeParse(form.get("intent"));
   if (!intent.success) return { ok: false, message: firstMessage(intent.error) };

@@ -9,6 +9,7 @@ import { changeDisposition, dispositionFormSchema } from "@/lib/dal/dispositions
 import { InputError } from "@/lib/dal/setup-access";
 import { addUnitNote, noteFormSchema } from "@/lib/dal/unit-notes";
 import { DISPOSITION_WORDS } from "@/lib/units/disposition-rules";
+import { asForm } from "@/lib/forms/fields";
 
 export type DispositionState = {
   ok: boolean; message: string;
@@ -25,6 +26,7 @@ function fieldErrorsOf(issues: readonly { path: PropertyKey[]; message: string }
 
 /** A disposition: parsed here, judged by the rules and signed in the DAL (which checks the session again). */
 export async function setDisposition(_prev: DispositionState, form: FormData): Promise<DispositionState> {
+  form = asForm(form);
   await requireRole("qa", "admin");
   const raw = Object.fromEntries(form);
   const values = { to: String(raw.to ?? ""), reason: String(raw.reason ?? ""), concessionRef: String(raw.concessionRef ?? "") };
@@ -51,6 +53,8 @@ export type NoteState = { ok: boolean; message: string; values?: { visibility: s
 
 /** A note on the unit, internal (lab only) or for the client, chosen when it is written. */
 export async function addNote(_prev: NoteState, form: FormData): Promise<NoteState> {
+  form = asForm(form);
+  await requireRole("admin", "operator", "qa");
   const raw = Object.fromEntries(form);
   const values = { visibility: String(raw.visibility ?? ""), body: String(raw.body ?? "") };
   const parsed = noteFormSchema.safeParse(raw);
