@@ -31,7 +31,7 @@ export function UnitSummary({ latestOverall, planState, disposition, registered,
       </section>
       <dl className="grid grid-cols-2 gap-4 rounded-lg bg-white p-5 text-sm shadow-sm ring-1 ring-ink-200 md:grid-cols-4">
         <Item label="Test plan">{planState}</Item>
-        <Item label="Disposition">{disposition}</Item>
+        <Item label="Disposition"><span data-testid="unit-disposition">{disposition}</span></Item>
         <Item label="Registered">{registered}</Item>
         <Item label="Model"><span className="font-mono">{modelCode}</span></Item>
       </dl>

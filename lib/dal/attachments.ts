@@ -20,7 +20,10 @@ const isUuid = (id: string) => z.uuid().safeParse(id).success;
 
 export async function listAttachmentsFor(user: SessionUser, unitId: string) {
   if (!isUuid(unitId)) return [];
-  return listUnitAttachments(scopeFor(user), unitId);
+  const scope = scopeFor(user);
+  const rows = await listUnitAttachments(scope, unitId);
+  // Staff names stay inside the lab: a client reads who uploaded as the lab.
+  return scope.kind === "lab" ? rows : rows.map((r) => ({ ...r, uploadedBy: "the lab" }));
 }
 
 /** For the unit page. */

@@ -61,8 +61,9 @@ export async function getCaptureStatusView(actor: Actor, captureId: string): Pro
     state: c.state, stateMessage: captureStateMessage(c, getEnv().WORKER_LOCK_MS), progress: c.progress, attempts: c.attempts,
     testKind: c.testKind, speedRpm: c.speedRpm,
     channelRoles: c.channelRoles, probeScales: c.probeScales, channelOffsets: c.channelOffsets, magnetTemperatureC: c.magnetTemperatureC, planStepId: c.planStepId,
-    notes: c.notes, originalName: c.originalName, sizeBytes: c.sizeBytes, sha256: c.sha256,
-    stationName: found.stationName, uploadedBy: found.uploadedBy,
+    // The operator's notes and staff names stay inside the lab.
+    notes: actor.scope.kind === "lab" ? c.notes : "", originalName: c.originalName, sizeBytes: c.sizeBytes, sha256: c.sha256,
+    stationName: found.stationName, uploadedBy: actor.scope.kind === "lab" ? found.uploadedBy : null,
     createdAt: c.createdAt.toISOString(), uploadedAt: c.uploadedAt?.toISOString() ?? null, analysedAt: c.analysedAt?.toISOString() ?? null,
     instruments: instruments ?? { instruments: [], warnings: [], confirmation: null },
     analysis: analysis

@@ -1,17 +1,97 @@
 import "server-only";
 import { z } from "zod";
+import { listActivePlanSteps } from "@/db/queries/judgement";
+import { listCurrentVerdicts } from "@/db/queries/review-checks";
+import { assignUnits, listReviewers } from "@/db/queries/unit-assignments";
 import { listReviewQueue, listUnitEvents } from "@/db/queries/unit-events";
-import { requireRole, requireUser } from "@/lib/auth/guards";
-import { scopeFor } from "./scope";
+import { evaluateUnitPlan } from "@/db/queries/unit-plan";
+import { HttpError } from "@/lib/auth/guards";
+import { findingsOf, type CheckFinding, type JudgedCheck } from "@/lib/units/check-exceedance";
+import { requirePageActor, type Actor } from "./actor";
 
-export async function getReviewQueueView() {
-  const user = await requireRole("qa", "admin");
-  return listReviewQueue(scopeFor(user));
+type LabScope = Actor["scope"] & { kind: "lab" };
+
+/** The review queue is for lab managers and quality engineers (403 for anyone else). */
+function requireReviewer(actor: Actor): { scope: LabScope; userId: string } {
+  if (actor.scope.kind !== "lab" || actor.role === "station" || !actor.userId || (actor.role !== "qa" && actor.role !== "admin")) {
+    throw new HttpError(403, "The review queue is for quality engineers and lab managers.");
+  }
+  return { scope: actor.scope, userId: actor.userId };
 }
 
-export async function getUnitHistoryView(unitId: string) {
-  const user = await requireUser();
-  if (!z.uuid().safeParse(unitId).success) return { events: [], canDisposition: false };
-  const events = await listUnitEvents(scopeFor(user), unitId);
-  return { events, canDisposition: user.role === "qa" || user.role === "admin" };
+export type QueueFinding = CheckFinding & { step: string | null };
+
+/**
+ * Open units waiting for a disposition, outside first then oldest (the order of listReviewQueue), each
+ * with the failing or inconclusive checks of its plan records (or of its latest capture where the
+ * rating has no plan), the plan steps still missing and who it is assigned to.
+ */
+export async function getReviewQueueView(actor: Actor) {
+  const { scope, userId } = requireReviewer(actor);
+  const [rows, reviewers] = await Promise.all([listReviewQueue(scope), listReviewers(scope)]);
+  const verdicts = await listCurrentVerdicts(scope, rows.map((r) => r.id));
+  const units = await Promise.all(rows.map(async (row) => {
+    const evaluation = await evaluateUnitPlan(scope, row.id);
+    const steps = evaluation ? await listActivePlanSteps(evaluation.ratingId) : [];
+    const stepName = new Map(steps.map((s) => [s.id, s.name]));
+    const mine = verdicts.filter((v) => v.unitId === row.id);
+    const evaluated = evaluation?.steps ?? [];
+    const recordIds = evaluated.filter((s) => s.status === "failed" || s.status === "inconclusive").flatMap((s) => (s.record ? [s.record.captureId] : []));
+    const sources = steps.length > 0 ? mine.filter((v) => recordIds.includes(v.captureId)) : mine.slice(0, 1);
+    const findings: QueueFinding[] = sources.flatMap((v) => {
+      const checks = Array.isArray(v.verdicts) ? (v.verdicts as JudgedCheck[]) : [];
+      return findingsOf(checks).map((f) => ({ ...f, step: v.planStepId ? stepName.get(v.planStepId) ?? null : null }));
+    });
+    const missingSteps = evaluated.filter((s) => s.status === "missing").map((s) => stepName.get(s.stepId) ?? "a plan step");
+    return { ...row, findings, missingSteps, mine: row.assigneeId === userId };
+  }));
+  return { units, reviewers, me: userId };
+}
+
+export const assignSchema = z.object({
+  unitIds: z.array(z.uuid("Pick units from the list")).min(1, "Tick at least one unit").max(200, "At most 200 units at once"),
+  assigneeId: z.uuid("Pick who reviews the units"),
+});
+
+/** Gives units to a quality engineer of the lab ("take" is assigning to oneself). Returns how many were assigned. */
+export async function assignForReview(actor: Actor, input: z.output<typeof assignSchema>): Promise<number> {
+  const { scope, userId } = requireReviewer(actor);
+  const outcome = await assignUnits(scope, [...new Set(input.unitIds)], input.assigneeId, userId);
+  if (outcome === "no-assignee") throw new HttpError(422, "Units can be assigned only to an enabled quality engineer or lab manager of your lab.");
+  if (outcome === 0) throw new HttpError(404, "None of those units is one your lab tests.");
+  return outcome;
+}
+
+export type HistoryEvent = {
+  id: string; kind: string; from: string | null; to: string | null; at: Date;
+  /** Staff-only fields: null for a client. */
+  actor: string | null; comment: string | null;
+  concessionRef: string | null;
+  signature: { name: string | null; role: string; at: Date; meaning: string } | null;
+  detail: string | null;
+};
+
+/**
+ * The unit's history. Lab staff see everything; a client sees only the disposition decisions with their
+ * concession reference and the signer's role and meaning, never staff names, comments or other events.
+ */
+export async function getUnitHistoryView(unitId: string): Promise<{ events: HistoryEvent[]; canDisposition: boolean }> {
+  const actor = await requirePageActor();
+  const events = await unitHistoryFor(actor, unitId);
+  return { events, canDisposition: actor.scope.kind === "lab" && (actor.role === "qa" || actor.role === "admin") };
+}
+
+/** The same history for any authorised caller (a client's API token included): a client gets the reduced view. */
+export async function unitHistoryFor(actor: Actor, unitId: string): Promise<HistoryEvent[]> {
+  if (!z.uuid().safeParse(unitId).success) return [];
+  const rows = await listUnitEvents(actor.scope, unitId);
+  const client = actor.scope.kind !== "lab";
+  return rows
+    .filter((e) => !client || e.kind === "disposition")
+    .map((e): HistoryEvent => ({
+      id: e.id, kind: e.kind, from: e.from, to: e.to, at: e.at, concessionRef: e.concessionRef,
+      actor: client ? null : e.actor, comment: client ? null : e.comment,
+      signature: e.signedAt && e.signerRole && e.meaning ? { name: client ? null : e.signerName, role: e.signerRole, at: e.signedAt, meaning: e.meaning } : null,
+      detail: client ? null : typeof e.detail?.assignee === "string" ? e.detail.assignee : null,
+    }));
 }

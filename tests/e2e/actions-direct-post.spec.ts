@@ -16,6 +16,7 @@ const ALLOWED: Record<string, readonly Role[]> = {
   "app/(app)/units/unit-actions.ts#createUnitAction": ["admin", "operator"],
   "app/(app)/units/unit-actions.ts#editUnitAction": ["admin", "qa"],
   "app/(app)/units/unit-actions.ts#retireUnitAction": ["admin", "qa"],
+  "app/(app)/units/[id]/actions.ts#addNote": ["admin", "qa", "operator"],
   // Password links work without a session: the token in the form is the authority.
   "app/(auth)/forgot-password/actions.ts#requestPasswordReset": ["admin", "qa", "operator", "kestrum"],
   "app/(auth)/set-password/actions.ts#setPassword": ["admin", "qa", "operator", "kestrum"],
@@ -28,6 +29,7 @@ const ALLOWED_BY_FILE: Record<string, readonly Role[]> = {
   "app/(app)/admin/clients/actions.ts": ["admin"],
   "app/(app)/admin/people/actions.ts": ["admin"],
   "app/(app)/units/[id]/actions.ts": ["admin", "qa"],
+  "app/(app)/review/actions.ts": ["admin", "qa"],
   "app/(app)/units/[id]/attachment-actions.ts": ["admin", "qa"],
   "app/(app)/units/[id]/record-actions.ts": ["admin", "qa"],
   "app/(app)/stations/profile-actions.ts": ["admin", "operator"],

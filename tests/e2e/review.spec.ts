@@ -22,14 +22,17 @@ test("a quality engineer finds an out-of-tolerance unit in the review queue and 
   await page.goto("/review");
   await page.getByRole("link", { name: FAILING_SERIAL }).click();
 
-  await page.getByLabel("Disposition").selectOption("rework");
+  // Interact once React has hydrated the form (a click before that posts the form without the page's script).
+  await page.waitForLoadState("networkidle");
+  await page.getByLabel("New disposition").selectOption("rework");
   await page.getByRole("button", { name: "Record disposition" }).click();
-  await expect(page.getByText("Say why: a concession, rework or scrap needs a comment for the record.")).toBeVisible();
+  await expect(page.getByText(/Every change of disposition needs a reason/).first()).toBeVisible();
 
-  await page.getByLabel("Comment for the record").fill("5th and 7th harmonics high: return rotor for skew check.");
+  await page.waitForLoadState("networkidle");
+  await page.getByLabel("Reason for the record").fill("5th and 7th harmonics high: return rotor for skew check.");
   await page.getByRole("button", { name: "Record disposition" }).click();
-  await expect(page.getByText("Disposition recorded.")).toBeVisible();
-  await expect(page.getByText("Ines Vardy changed the disposition from open to rework")).toBeVisible();
+  await expect(page.getByText("Disposition recorded: returned for rework.")).toBeVisible();
+  await expect(page.getByText("Ines Vardy changed the disposition from open (no decision) to returned for rework")).toBeVisible();
   await expect(page.getByText("5th and 7th harmonics high")).toBeVisible();
 
   await page.goto("/review");

@@ -3,6 +3,8 @@ import { UnitCapturesTable } from "@/components/captures/unit-captures-table";
 import { PageHeader } from "@/components/shell/page-header";
 import { getUnitCaptureRows } from "@/lib/dal/captures";
 import { getUnitHistoryView } from "@/lib/dal/review";
+import { getUnitNotesView } from "@/lib/dal/unit-notes";
+import { DISPOSITION_WORDS, whyNotWithin } from "@/lib/units/disposition-rules";
 import { getUnitRatingChoices, getUnitView } from "@/lib/dal/units";
 import { PLAN_STATE_WORDS, PlanPanel } from "@/components/units/plan-panel";
 import { UnitSummary } from "@/components/units/unit-summary";
@@ -14,6 +16,7 @@ import { UnitAttachments } from "./_components/unit-attachments";
 import { UnitHistory } from "./_components/unit-history";
 import { ReleasePanel } from "./_components/release-panel";
 import { requirePageActor } from "@/lib/dal/actor";
+import { UnitNotes } from "./_components/unit-notes";
 
 export default async function UnitPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
@@ -21,8 +24,8 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
   // Another organisation's unit is indistinguishable from a missing one.
   if (!view) notFound();
   const { unit, rating, owner } = view;
-  const [history, captureRows, plan, ratingChoices, actor] = await Promise.all([
-    getUnitHistoryView(unit.id), getUnitCaptureRows(unit.id), getUnitPlanView(unit.id), getUnitRatingChoices(), requirePageActor(),
+  const [history, captureRows, plan, ratingChoices, actor, notes] = await Promise.all([
+    getUnitHistoryView(unit.id), getUnitCaptureRows(unit.id), getUnitPlanView(unit.id), getUnitRatingChoices(), requirePageActor(), getUnitNotesView(unit.id),
   ]);
   // Drafts are the lab's own; a client reads released reports only.
   const isLab = actor.scope.kind === "lab";
@@ -39,7 +42,7 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
         }
       />
       <UnitSummary
-        latestOverall={unit.latestOverall} planState={plan ? PLAN_STATE_WORDS[plan.state] : "—"} disposition={unit.disposition}
+        latestOverall={unit.latestOverall} planState={plan ? PLAN_STATE_WORDS[plan.state] : "—"} disposition={DISPOSITION_WORDS[unit.disposition]}
         registered={unit.createdAt.toISOString().slice(0, 10)} modelCode={rating.modelCode} nameplate={rating.nameplate}
       />
       {plan ? (
@@ -62,8 +65,9 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
           <h2 id="decisions" className="mb-3 font-semibold">Decisions</h2>
           <UnitHistory events={history.events} />
         </div>
-        {history.canDisposition ? <DispositionPanel unitId={unit.id} current={unit.disposition} /> : null}
+        {history.canDisposition ? <DispositionPanel unitId={unit.id} current={unit.disposition} withinNote={whyNotWithin(unit)} /> : null}
       </section>
+      <UnitNotes unitId={unit.id} notes={notes.notes} clientNotes={notes.clientNotes} canWrite={notes.canWrite} />
     </>
   );
 }
