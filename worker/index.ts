@@ -5,6 +5,10 @@ import { setCaptureState } from "@/db/queries/captures";
 import { getEnv } from "@/lib/server/env";
 import { ANALYSIS_QUEUE, closeAnalysisQueue, createRedis, type AnalysisJobData } from "@/lib/server/queue";
 import { logDetail } from "@/lib/server/outage";
+import { enqueueQueuedMails } from "@/lib/server/mail-outbox";
+import { closeMailQueue } from "@/lib/server/mail-queue";
+import { mailIdsOf, sweepMail } from "./mail-sweep";
+import { startMailWorker } from "./mail-worker";
 import { sweepAbandonedUploads } from "./abandoned-uploads";
 import { failureMessage, isOutageReason } from "./processors/messages";
 import { sweepAbandonedCaptures } from "./recovery";
@@ -29,8 +33,13 @@ const worker = new Worker<AnalysisJobData>(ANALYSIS_QUEUE, processorFile, {
   maxStalledCount: 2,
 });
 
+const mailWorker = startMailWorker(connection, log);
+
 worker.on("error", (err) => console.error(`worker error: ${err.message}`));
-worker.on("completed", (job: Job<AnalysisJobData>, result: unknown) => log(`${job.id} ${JSON.stringify(result)}`));
+worker.on("completed", (job: Job<AnalysisJobData>, result: unknown) => {
+  log(`${job.id} ${JSON.stringify(result)}`);
+  void enqueueQueuedMails(mailIdsOf(result));
+});
 worker.on("failed", (job: Job<AnalysisJobData> | undefined, err: Error) => {
   if (!job) return;
   const outage = isOutageReason(err.message);
@@ -78,6 +87,7 @@ async function runSweep(reason: string): Promise<void> {
     if (u.removed) log(`sweep (${reason}): ${u.removed} upload(s) abandoned over ${env.UPLOAD_ABANDON_HOURS} h ago removed`);
     if (u.partsLeft) log(`sweep (${reason}): the object store cannot abort multipart uploads; parts of ${u.partsLeft} upload(s) stay there (use a lifecycle rule)`);
     for (const e of u.storageErrors) console.error(`sweep (${reason}): could not clean storage of an abandoned upload: ${e}`);
+    await sweepMail(reason, log);
   } catch (err) {
     console.error(`sweep (${reason}) failed: ${logDetail(err)}`);
     scheduleSweep(`retry of the ${reason} sweep`, 5_000);
@@ -115,8 +125,9 @@ async function shutdown(signal: string): Promise<void> {
     process.exit(1);
   }, SHUTDOWN_GRACE_MS).unref();
   try {
-    await worker.close();
+    await Promise.all([worker.close(), mailWorker.close()]);
     await closeAnalysisQueue();
+    await closeMailQueue();
     await connection.quit();
     await closeDb();
   } catch (err) {
