@@ -14,13 +14,15 @@ const ITEMS: Record<string, NavItem> = {
   clients: { href: "/admin/clients", label: "Clients" },
   people: { href: "/admin/people", label: "People" },
   mailbox: { href: "/admin/mailbox", label: "Outbox" },
+  portal: { href: "/portal", label: "Released reports" },
+  tokens: { href: "/portal/tokens", label: "API tokens" },
 };
 
 const BY_ROLE: Record<Role, (keyof typeof ITEMS)[]> = {
   admin: ["home", "units", "captures", "upload", "review", "trends", "ratings", "stations", "clients", "people", "mailbox"],
   operator: ["home", "upload", "captures", "units", "ratings", "stations"],
   qa: ["home", "review", "units", "captures", "trends", "ratings"],
-  manufacturer: ["home", "units"],
+  manufacturer: ["home", "units", "portal", "tokens"],
 };
 
 export function navFor(role: Role): NavItem[] {

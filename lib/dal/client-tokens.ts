@@ -25,7 +25,9 @@ async function requireClientAdmin(): Promise<SessionUser> {
 export async function getClientTokensView() {
   const user = await requireRole("manufacturer");
   const admin = await isActiveClientAdmin(user.id);
-  return { isAdmin: admin, tokens: admin ? await listClientTokens(user.organisationId) : [] };
+  const now = Date.now();
+  const tokens = admin ? await listClientTokens(user.organisationId) : [];
+  return { isAdmin: admin, tokens: tokens.map((t) => ({ ...t, expired: t.expiresAt.getTime() <= now })) };
 }
 
 /** The token is returned once, here; only its sha256 is stored. */
