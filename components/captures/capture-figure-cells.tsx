@@ -1,4 +1,4 @@
-import { fmt, fmtFixed } from "./format";
+import { formatFigure } from "@/lib/verdicts/format-figure";
 
 export type CaptureFigures = { frequencyHz: number | null; worstThdPercent: number | null; vufPercent: number | null; keLineRmsPerKrpm: number | null };
 
@@ -6,10 +6,10 @@ export type CaptureFigures = { frequencyHz: number | null; worstThdPercent: numb
 export function CaptureFigureCells({ row, cellClass }: { row: CaptureFigures; cellClass: string }) {
   return (
     <>
-      <td className={`${cellClass} tabular-nums`}>{fmt(row.frequencyHz, 6)}</td>
-      <td className={`${cellClass} tabular-nums`}>{fmtFixed(row.worstThdPercent, 2)}</td>
-      <td className={`${cellClass} tabular-nums`}>{fmtFixed(row.vufPercent, 3)}</td>
-      <td className={`${cellClass} tabular-nums`}>{fmt(row.keLineRmsPerKrpm)}</td>
+      <td className={`${cellClass} tabular-nums`}>{formatFigure(row.frequencyHz, { quantity: "frequency" })}</td>
+      <td className={`${cellClass} tabular-nums`}>{formatFigure(row.worstThdPercent, { quantity: "percent" })}</td>
+      <td className={`${cellClass} tabular-nums`}>{formatFigure(row.vufPercent, { quantity: "percent" })}</td>
+      <td className={`${cellClass} tabular-nums`}>{formatFigure(row.keLineRmsPerKrpm, { quantity: "ke" })}</td>
     </>
   );
 }

@@ -1,6 +1,7 @@
 "use client";
 
 import { useQuery } from "@tanstack/react-query";
+import type { ReactNode } from "react";
 import { Notice } from "@/components/ui/notice";
 import { StatusTag } from "@/components/ui/status-tag";
 import { ANALYSIS_VERSION } from "@/lib/analysis/version";
@@ -13,11 +14,14 @@ import { fmtDate } from "./format";
 import { MetricsTable } from "./metrics-table";
 import { ReanalyseButton } from "./reanalyse-button";
 import { CaptureQueryProvider } from "./query-provider";
+import { VerdictSummary } from "./verdict-summary";
 import { VerdictsTable, WarningsList } from "./verdicts-table";
+import { PhasorDiagram } from "@/components/phasors/phasor-diagram";
 
 type Correction = { channels: string[]; planSteps: { id: string; name: string }[] } | null;
+type Props = { initial: CaptureStatusView; canReanalyse: boolean; correction?: Correction; details?: ReactNode };
 
-function CaptureLiveInner({ initial, canReanalyse, correction }: { initial: CaptureStatusView; canReanalyse: boolean; correction: Correction }) {
+function CaptureLiveInner({ initial, canReanalyse, correction = null, details }: Props) {
   const { data } = useQuery({
     queryKey: captureKeys.status(initial.id),
     queryFn: () => fetchCaptureStatus(initial.id),
@@ -28,6 +32,7 @@ function CaptureLiveInner({ initial, canReanalyse, correction }: { initial: Capt
   const analysis = c.analysis;
   return (
     <div className="space-y-6">
+      {analysis ? <VerdictSummary report={analysis.report} /> : null}
       <div className="flex flex-wrap items-center gap-3 rounded-lg bg-white p-4 shadow-sm ring-1 ring-ink-200" aria-live="polite">
         <span className="text-sm font-semibold">State</span>
         <CaptureStateBadge state={c.state} progress={c.progress} />
@@ -45,6 +50,7 @@ function CaptureLiveInner({ initial, canReanalyse, correction }: { initial: Capt
         {c.state === "queued" ? <p className="w-full text-xs text-ink-600">{c.stateMessage ?? "Waiting for a worker; this page updates by itself."}</p> : null}
         {c.state === "uploading" ? <p className="w-full text-xs text-ink-600">The upload was not completed. Send the same file again from the upload page to finish it.</p> : null}
       </div>
+      {details}
       {correction && isFinalState(c.state) ? <CorrectionForm capture={c} channels={correction.channels} planSteps={correction.planSteps} /> : null}
       {analysis && !isFinalState(c.state) ? <Notice kind="info">A new analysis run is on its way; the result below is the current one until it lands.</Notice> : null}
       {analysis && isFinalState(c.state) && analysis.analysisVersion !== ANALYSIS_VERSION ? (
@@ -62,22 +68,26 @@ function CaptureLiveInner({ initial, canReanalyse, correction }: { initial: Capt
             <p className="mt-2 text-xs text-ink-600">Advisory measurements against the rating&apos;s tolerance profile; release of the unit is a qualified person&apos;s decision.</p>
           </section>
           <WarningsList report={analysis.report} />
+          <PhasorDiagram report={analysis.report} />
           <section>
             <h2 className="mb-2 text-lg font-semibold">Metrics</h2>
             <MetricsTable report={analysis.report} />
           </section>
-          <CapturePlots captureId={c.id} analysedAt={c.analysedAt} />
+          <CapturePlots captureId={c.id} analysedAt={c.analysedAt} units={Object.fromEntries(analysis.report.channels.map((ch) => [ch.id, ch.unit]))} />
         </>
       ) : null}
     </div>
   );
 }
 
-/** The live part of the capture page: state, then verdicts, metrics and plots once analysed. */
-export function CaptureLive({ initial, canReanalyse, correction = null }: { initial: CaptureStatusView; canReanalyse: boolean; correction?: Correction }) {
+/**
+ * The live part of the capture page: the overall verdict first, the state, the capture's details
+ * (server-rendered, passed in), then verdicts, phasors, metrics and plots once analysed.
+ */
+export function CaptureLive(props: Props) {
   return (
     <CaptureQueryProvider>
-      <CaptureLiveInner initial={initial} canReanalyse={canReanalyse} correction={correction} />
+      <CaptureLiveInner {...props} />
     </CaptureQueryProvider>
   );
 }

@@ -3,6 +3,7 @@
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
 import { useState } from "react";
+import { StatusTag } from "@/components/ui/status-tag";
 import { CaptureStateBadge, captureStateWord, ProgressBar } from "./capture-state-badge";
 import { captureKeys, fetchCaptureStatus, isFinalState } from "./fetchers";
 
@@ -23,6 +24,7 @@ export function LiveCaptureState({ captureId, firstState }: { captureId: string;
     <div className="mt-2 text-sm">
       <div className="flex flex-wrap items-center gap-3">
         <CaptureStateBadge state={c.state} progress={c.progress} />
+        {c.state === "analysed" && c.analysis ? <span data-testid="upload-verdict" className="text-base"><StatusTag status={c.analysis.report.overall} /></span> : null}
         <span data-testid="state-trail" className="text-xs text-ink-600">
           {trail.map((s) => captureStateWord(s as typeof c.state)).join(" → ")}
         </span>

@@ -1,6 +1,10 @@
 import { StatusTag } from "@/components/ui/status-tag";
 import type { AnalysisReport } from "@/lib/analysis";
-import { fmtWithUnit } from "./format";
+import { formatFigureWithUnit, quantityFor } from "@/lib/verdicts/format-figure";
+import { marginOf } from "@/lib/verdicts/margin";
+
+const figure = (value: number | string | null, unit: string, check: string) =>
+  typeof value === "string" ? value : formatFigureWithUnit(value, unit, { quantity: quantityFor(unit, check) });
 
 /** Every judged check with its measured value, limits, verdict, basis and the limit's source; then the checks not required, with why. */
 export function VerdictsTable({ report }: { report: AnalysisReport }) {
@@ -12,17 +16,18 @@ export function VerdictsTable({ report }: { report: AnalysisReport }) {
     <div className="overflow-x-auto rounded-lg bg-white shadow-sm ring-1 ring-ink-200">
       <table className="min-w-full text-sm" aria-label="Verdicts">
         <thead className="bg-ink-100 text-left text-xs uppercase tracking-wide text-ink-600">
-          <tr><th className="sticky left-0 bg-ink-100 px-3 py-2">Check</th><th className="px-3 py-2">Verdict</th><th className="px-3 py-2">Measured</th><th className="px-3 py-2">Limits</th><th className="px-3 py-2">Basis and source</th></tr>
+          <tr><th className="sticky left-0 z-10 bg-ink-100 px-3 py-2">Verdict</th><th className="px-3 py-2">Check</th><th className="px-3 py-2">Measured</th><th className="px-3 py-2">Limits</th><th className="px-3 py-2">Margin</th><th className="px-3 py-2">Basis and source</th></tr>
         </thead>
         <tbody>
           {judged.map((v) => (
             <tr key={v.check} className="border-t border-ink-100 align-top">
-              <td className="sticky left-0 bg-white px-3 py-2 font-semibold">{v.label}</td>
-              <td className="px-3 py-2"><StatusTag status={v.status} /></td>
-              <td className="px-3 py-2 tabular-nums">{fmtWithUnit(v.measured, v.unit)}</td>
-              <td className="px-3 py-2 tabular-nums">
-                {v.lower === null && v.upper === null ? "—" : `${v.lower === null ? "" : fmtWithUnit(v.lower, v.unit)} … ${v.upper === null ? "" : fmtWithUnit(v.upper, v.unit)}`}
+              <td className="sticky left-0 z-10 bg-white px-3 py-2" data-testid="verdict-cell"><StatusTag status={v.status} /></td>
+              <td className="px-3 py-2 font-semibold">{v.label}</td>
+              <td className="whitespace-nowrap px-3 py-2 tabular-nums">{figure(v.measured, v.unit, v.check)}</td>
+              <td className="whitespace-nowrap px-3 py-2 tabular-nums">
+                {v.lower === null && v.upper === null ? "—" : `${v.lower === null ? "" : figure(v.lower, v.unit, v.check)} … ${v.upper === null ? "" : figure(v.upper, v.unit, v.check)}`}
               </td>
+              <td className="px-3 py-2 text-xs tabular-nums">{v.status === "inconclusive" ? "—" : marginOf(v)?.words ?? "—"}</td>
               <td className="px-3 py-2 text-xs text-ink-600">
                 {v.basis}
                 {v.source ? <span className="block">Limit: {v.source}</span> : null}

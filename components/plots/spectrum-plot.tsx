@@ -4,6 +4,7 @@ import "uplot/dist/uPlot.min.css";
 import { useCallback, useState } from "react";
 import uPlot from "uplot";
 import type { SpectrumView } from "@/lib/dal/captures";
+import { axisLabel, tickLabels } from "./axes";
 import { CHANNEL_COLOURS, useUplot } from "./use-uplot";
 
 const HEIGHT = 260;
@@ -25,7 +26,7 @@ export function SpectrumPlot({ spectrum }: { spectrum: SpectrumView }) {
         { label: "Order" },
         { label: `${channel.id} (% of fundamental)`, stroke: colour, fill: `${colour}99`, paths: uPlot.paths.bars?.({ size: [0.7, 40] }), points: { show: false } },
       ],
-      axes: [{ label: "Harmonic order" }, { label: "% of fundamental" }],
+      axes: [{ label: "Harmonic order", values: (_u, splits) => tickLabels(splits) }, { label: axisLabel("%", "Harmonic RMS relative to the fundamental"), values: (_u, splits) => tickLabels(splits) }],
       legend: { live: true },
     };
     return { options, data: [orders, percent] as uPlot.AlignedData };

@@ -4,6 +4,8 @@ import "uplot/dist/uPlot.min.css";
 import { useCallback } from "react";
 import type uPlot from "uplot";
 import type { WaveformPreview } from "@/lib/dal/captures";
+import { axisLabel, tickLabels, unitsInOrder } from "./axes";
+import { ChannelLegend } from "./channel-legend";
 import { CHANNEL_COLOURS, useUplot } from "./use-uplot";
 
 const HEIGHT = 320;
@@ -26,27 +28,45 @@ function wheelZoom(): uPlot.Plugin {
   };
 }
 
-/** All channels of the min/max envelope: each channel is a band between its bucket minima and maxima. */
-export function WaveformPlot({ preview }: { preview: WaveformPreview }) {
+/** A channel's unit from "id=V,id=A"; a channel not named there is a voltage. */
+function unitReader(unitsKey: string): (id: string) => "V" | "A" {
+  const units = new Map(unitsKey.split(",").map((pair) => pair.split("=") as [string, string]));
+  return (id) => (units.get(id) === "A" ? "A" : "V");
+}
+
+/**
+ * All channels of the min/max envelope: each channel is a band between its bucket minima and
+ * maxima, on a voltage axis and (when currents were recorded) a current axis on the right.
+ * `unitsKey` is "id=V,id=A" so the chart is rebuilt only when the channels change.
+ */
+export function WaveformPlot({ preview, unitsKey = "" }: { preview: WaveformPreview; unitsKey?: string }) {
+  const unitOf = unitReader(unitsKey);
   const build = useCallback(() => {
+    const channelUnit = unitReader(unitsKey);
     const data: (number[])[] = [preview.timeS];
     const series: uPlot.Series[] = [{ label: "Time (s)" }];
     const bands: uPlot.Band[] = [];
     preview.channels.forEach((c, i) => {
       const colour = CHANNEL_COLOURS[i % CHANNEL_COLOURS.length] as string;
+      const scale = channelUnit(c.id);
       data.push(c.max, c.min);
-      series.push({ label: `${c.id} max`, stroke: colour, width: 1 }, { label: `${c.id} min`, stroke: colour, width: 1 });
+      series.push({ label: `${c.id} max`, stroke: colour, width: 1, scale }, { label: `${c.id} min`, stroke: colour, width: 1, scale });
       bands.push({ series: [data.length - 2, data.length - 1], fill: `${colour}40` });
     });
+    const values = (_u: uPlot, splits: number[]) => tickLabels(splits);
+    const yAxes: uPlot.Axis[] = unitsInOrder(preview.channels.map((c) => channelUnit(c.id))).map((unit, i) => ({
+      scale: unit, label: axisLabel(unit), values, side: i === 0 ? 3 : 1, grid: { show: i === 0 },
+    }));
     const options: uPlot.Options = {
       width: 800, height: HEIGHT, series, bands, plugins: [wheelZoom()],
       scales: { x: { time: false } },
-      axes: [{ label: "Time (s)" }, { label: "Volts / amps" }],
+      axes: [{ label: axisLabel("s"), values }, ...yAxes],
       cursor: { drag: { x: true, y: false } },
-      legend: { live: true },
+      // One legend entry per channel below the chart, not a max and a min entry each.
+      legend: { show: false },
     };
     return { options, data: data as uPlot.AlignedData };
-  }, [preview]);
+  }, [preview, unitsKey]);
   const { ref, chart } = useUplot(build, HEIGHT);
   const pan = (direction: -1 | 1) => {
     const u = chart.current;
@@ -69,6 +89,7 @@ export function WaveformPlot({ preview }: { preview: WaveformPreview }) {
         <span className="self-center text-ink-600">Drag to zoom a span, wheel to zoom, double-click to reset.</span>
       </div>
       <div ref={ref} className="w-full" />
+      <ChannelLegend channels={preview.channels.map((c, i) => ({ id: c.id, unit: unitOf(c.id), colour: CHANNEL_COLOURS[i % CHANNEL_COLOURS.length] as string }))} />
       <figcaption className="mt-1 text-xs text-ink-600">
         Min/max envelope of {preview.timeS.length.toLocaleString("en")} buckets per channel: every peak of the full record is kept.
       </figcaption>

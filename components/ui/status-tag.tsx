@@ -1,4 +1,4 @@
-import { VERDICT_WORDS } from "@/lib/verdicts/words";
+import { verdictWord } from "@/lib/verdicts/words";
 import type { VerdictStatus } from "@/lib/analysis";
 
 // Verdict tags carry a word and a shape, never colour alone.
@@ -12,13 +12,17 @@ const STYLES: Record<VerdictStatus | "none", { cls: string; mark: string }> = {
   none: { cls: "bg-ink-100 text-ink-600", mark: "○" },
 };
 
+/** The shape beside each verdict word, shared by the tag and the large verdict of a page. */
+export function verdictMark(status: VerdictStatus | null | undefined): string {
+  return STYLES[status ?? "none"].mark;
+}
 
 export function StatusTag({ status }: { status: VerdictStatus | null | undefined }) {
   const s = STYLES[status ?? "none"];
   return (
     <span className={`inline-flex items-center gap-1 rounded px-2 py-0.5 text-xs font-semibold ${s.cls}`}>
       <span aria-hidden>{s.mark}</span>
-      {status ? VERDICT_WORDS[status] : "No result yet"}
+      {verdictWord(status)}
     </span>
   );
 }

@@ -1,10 +1,10 @@
 import { readFileSync } from "node:fs";
 import { expect, test, type Page } from "@playwright/test";
 import { makePng } from "../fixtures/attachments/make-png";
-import { signIn, signOut } from "./support";
+import { freshSerial, registerUnit, signIn, signOut } from "./support";
 
-// A Kestrum unit no other spec changes.
-const SERIAL = "KG60-260043";
+// A Kestrum unit of this run's own (registered by the operator first).
+const SERIAL = freshSerial("KG60-T");
 const run = Date.now() % 100_000;
 const NAME = `nameplate-${run}.png`;
 const png = makePng(run % 250);
@@ -19,7 +19,9 @@ async function openUnit(page: Page) {
 const attached = (page: Page) => page.getByRole("list", { name: "Attached files" }).getByRole("listitem", { name: NAME });
 
 test("an operator attaches a PNG, a client of the unit's organisation reads it, another cannot, and QA's removal is in the unit history", async ({ page }) => {
+  test.setTimeout(180_000);
   await signIn(page, "operator");
+  await registerUnit(page, SERIAL, "KG-60T6");
   await openUnit(page);
   const form = page.getByRole("form", { name: "Attach files" });
   const input = form.getByLabel("Files", { exact: true });

@@ -1,6 +1,6 @@
 import { expect, test } from "@playwright/test";
 import { makeThreePhaseCsv } from "../fixtures/pipeline/make-capture";
-import { signIn } from "./support";
+import { fillNewUnit, freshSerial, signIn } from "./support";
 
 test("a 40 MB capture goes from the browser to storage in parts (multipart), and the captures list follows its analysis without a reload", async ({ page }) => {
   test.setTimeout(180_000);
@@ -10,7 +10,8 @@ test("a 40 MB capture goes from the browser to storage in parts (multipart), and
   expect(Buffer.byteLength(csv)).toBeGreaterThan(32 * 1024 ** 2);
   await signIn(page, "operator");
   await page.goto("/upload");
-  await page.getByLabel("Unit serial").fill("KG45-260303");
+  const serial = freshSerial("KG45-M");
+  await fillNewUnit(page, serial);
   await page.getByLabel("Capture files").setInputFiles([{ name: `long-record-${run}.csv`, mimeType: "text/csv", buffer: Buffer.from(csv) }]);
   const file = page.getByTestId("upload-file");
   await expect(file.getByLabel("Role of V_BN (V)")).toHaveValue("vbn");
@@ -32,7 +33,7 @@ test("a 40 MB capture goes from the browser to storage in parts (multipart), and
   await expect(row.getByTestId("capture-state")).toHaveAttribute("data-state", "analysed", { timeout: 90_000 });
   await expect(page.getByTestId("refreshing")).toHaveCount(0);
   expect(loads, "the page was reloaded").toBe(0);
-  await row.getByRole("link", { name: "KG45-260303" }).click();
+  await row.getByRole("link", { name: serial }).click();
   const unitRow = page.getByRole("table", { name: "Captures" }).getByRole("row").filter({ hasText: `long-record-${run}.csv` });
   await expect(unitRow.getByTestId("capture-state")).toHaveAttribute("data-state", "analysed");
 });

@@ -1,13 +1,13 @@
 import { expect, test } from "@playwright/test";
 import { makeThreePhaseCsv } from "../fixtures/pipeline/make-capture";
-import { signIn, signOut } from "./support";
+import { fillNewUnit, freshSerial, signIn, signOut } from "./support";
 
 test("a quality engineer re-runs an analysed capture; the page follows it live and the earlier run stays in history", async ({ page }) => {
   test.setTimeout(120_000);
   const run = Date.now() % 1_000_000;
   await signIn(page, "operator");
   await page.goto("/upload");
-  await page.getByLabel("Unit serial").fill("KG45-260310");
+  await fillNewUnit(page, freshSerial("KG45-A"));
   await page.getByLabel("Capture files").setInputFiles([{ name: `rerun-${run}.csv`, mimeType: "text/csv", buffer: Buffer.from(makeThreePhaseCsv({ variant: run })) }]);
   await page.getByRole("button", { name: "Upload 1 file" }).click();
   const file = page.getByTestId("upload-file");

@@ -17,7 +17,12 @@ test("a lab manager creates a station key shown once, the bench API accepts it, 
   await page.reload();
   await expect(page.getByText(token)).toHaveCount(0);
   const row = page.getByRole("row").filter({ hasText: label });
-  await row.getByRole("button", { name: "Revoke" }).click();
+  // Revoking asks first; a click before React has hydrated the page does nothing, so retry.
+  await expect(async () => {
+    await row.getByRole("button", { name: "Revoke" }).click({ timeout: 2000 });
+    await expect(row.getByRole("alertdialog")).toBeVisible({ timeout: 2000 });
+  }).toPass({ timeout: 30_000 });
+  await row.getByRole("button", { name: "Yes, revoke" }).click();
   await expect(row).toContainText("Revoked");
   const refused = await request.get("/api/v1/units/KG45-260301", { headers: { Authorization: `Bearer ${token}` } });
   expect(refused.status()).toBe(401);

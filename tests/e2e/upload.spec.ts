@@ -1,6 +1,6 @@
 import { expect, test } from "@playwright/test";
 import { makeBrokenCsv, makeThreePhaseCsv } from "../fixtures/pipeline/make-capture";
-import { signIn, signOut } from "./support";
+import { fillNewUnit, freshSerial, signIn, signOut } from "./support";
 
 // Needs the test server and the worker that scripts/test.sh starts beside it.
 
@@ -10,7 +10,7 @@ test("an operator uploads two CSV files, watches both go queued → analysed, th
   await signIn(page, "operator");
   await page.goto("/upload");
   await expect(page.getByRole("complementary", { name: "Safety caution" })).toBeVisible();
-  await page.getByLabel("Unit serial").fill("KG45-260310");
+  await fillNewUnit(page, freshSerial("KG45-U"));
   await page.getByLabel("Shaft speed (rpm)").fill("1500");
   await page.getByLabel("Capture files").setInputFiles([
     { name: `no-load-a-${run}.csv`, mimeType: "text/csv", buffer: Buffer.from(makeThreePhaseCsv({ variant: run })) },
@@ -38,7 +38,7 @@ test("an operator uploads two CSV files, watches both go queued → analysed, th
   await expect(page.getByTestId("spectrum-plot").locator("canvas")).toBeVisible();
   await expect(page.getByRole("table", { name: "Channel metrics" })).toContainText("V_BN (V)");
 
-  // The unit belongs to Kestrum: Poldane's client account must not see the capture, page or data.
+  // The unit's rating belongs to Kestrum: Poldane's client account must not see the capture, page or data.
   const captureUrl = new URL(page.url()).pathname;
   await signOut(page);
   await signIn(page, "poldane");
@@ -53,7 +53,7 @@ test("a CSV whose body turns non-numeric is uploaded, then shown rejected with t
   const run = Date.now() % 1_000_000;
   await signIn(page, "operator");
   await page.goto("/upload");
-  await page.getByLabel("Unit serial").fill("KG45-260302");
+  await fillNewUnit(page, freshSerial("KG45-R"));
   await page.getByLabel("Capture files").setInputFiles([{ name: `broken-${run}.csv`, mimeType: "text/csv", buffer: Buffer.from(makeBrokenCsv(run)) }]);
   await page.getByRole("button", { name: "Upload 1 file" }).click();
   const file = page.getByTestId("upload-file");

@@ -10,6 +10,7 @@ import { rejudgeRating, saveProfileVersion } from "@/lib/dal/rating-profiles";
 import { createRating, setRatingRetired, updateRating } from "@/lib/dal/ratings";
 import { refusedForm, type SetupFormState } from "@/lib/dal/setup-access";
 import { unflattenForm } from "@/lib/ratings/form-data";
+import { asForm } from "@/lib/forms/fields";
 
 // Every action: guard (lab manager or quality engineer), then the DAL (which checks again and scopes to
 // the lab), then revalidate or redirect outside any try.
@@ -21,6 +22,7 @@ const ids = (form: FormData) => ratingIdSchema.safeParse(Object.fromEntries(form
 const notFound: SetupFormState = { ok: false, message: "No such rating in your lab." };
 
 export async function createRatingAction(_prev: SetupFormState, form: FormData): Promise<SetupFormState> {
+  form = asForm(form);
   const actor = await editor();
   let id: string;
   try {
@@ -33,6 +35,7 @@ export async function createRatingAction(_prev: SetupFormState, form: FormData):
 }
 
 export async function updateRatingAction(_prev: SetupFormState, form: FormData): Promise<SetupFormState> {
+  form = asForm(form);
   const actor = await editor();
   const parsed = ids(form);
   if (!parsed.success) return notFound;
@@ -47,6 +50,7 @@ export async function updateRatingAction(_prev: SetupFormState, form: FormData):
 }
 
 export async function setRatingRetiredAction(form: FormData): Promise<void> {
+  form = asForm(form);
   const actor = await editor();
   const parsed = ratingIdSchema.extend({ retired: z.enum(["true", "false"]) }).safeParse(Object.fromEntries(form));
   if (!parsed.success) return;
@@ -56,6 +60,7 @@ export async function setRatingRetiredAction(form: FormData): Promise<void> {
 }
 
 export async function saveProfileAction(_prev: SetupFormState, form: FormData): Promise<SetupFormState> {
+  form = asForm(form);
   const actor = await editor();
   const parsed = ids(form);
   if (!parsed.success) return notFound;
@@ -78,6 +83,7 @@ function stepFromForm(form: FormData) {
 }
 
 export async function savePlanStepAction(_prev: SetupFormState, form: FormData): Promise<SetupFormState> {
+  form = asForm(form);
   const actor = await editor();
   const parsed = ratingIdSchema.extend({ stepId: z.uuid().optional() }).safeParse({ ...Object.fromEntries(form), stepId: form.get("stepId") || undefined });
   if (!parsed.success) return notFound;
@@ -92,6 +98,7 @@ export async function savePlanStepAction(_prev: SetupFormState, form: FormData):
 }
 
 export async function movePlanStepAction(form: FormData): Promise<void> {
+  form = asForm(form);
   const actor = await editor();
   const parsed = stepRefSchema.extend({ by: z.enum(["-1", "1"]) }).safeParse(Object.fromEntries(form));
   if (!parsed.success) return;
@@ -101,6 +108,7 @@ export async function movePlanStepAction(form: FormData): Promise<void> {
 }
 
 export async function retirePlanStepAction(form: FormData): Promise<void> {
+  form = asForm(form);
   const actor = await editor();
   const parsed = stepRefSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return;
@@ -111,6 +119,7 @@ export async function retirePlanStepAction(form: FormData): Promise<void> {
 
 /** Judges the rating's analysed captures again against the profile in force and their plan steps. */
 export async function rejudgeRatingAction(form: FormData): Promise<void> {
+  form = asForm(form);
   const actor = await editor();
   const parsed = ids(form);
   if (!parsed.success) return;

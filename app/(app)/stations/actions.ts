@@ -3,7 +3,10 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { HttpError } from "@/lib/auth/guards";
+import { requireRoleActor } from "@/lib/dal/actor";
+import { formFields } from "@/lib/forms/fields";
 import { createStation, createStationKey, revokeKey } from "@/lib/dal/stations";
+import { asForm } from "@/lib/forms/fields";
 
 const newKeySchema = z.object({ stationId: z.uuid("Pick a bench."), label: z.string().trim().min(2, "Name the key (which PC uses it).").max(80) });
 const revokeSchema = z.object({ keyId: z.uuid() });
@@ -12,7 +15,9 @@ const newStationSchema = z.object({ name: z.string().trim().min(2, "Name the ben
 export type KeyState = { ok: boolean; message: string; token?: string };
 
 export async function createKeyAction(_prev: KeyState, form: FormData): Promise<KeyState> {
-  const parsed = newKeySchema.safeParse(Object.fromEntries(form));
+  form = asForm(form);
+  await requireRoleActor("admin");
+  const parsed = newKeySchema.safeParse(formFields(form));
   if (!parsed.success) return { ok: false, message: parsed.error.issues[0]?.message ?? "Check the form." };
   let created;
   try {
@@ -25,7 +30,9 @@ export async function createKeyAction(_prev: KeyState, form: FormData): Promise<
 }
 
 export async function revokeKeyAction(form: FormData): Promise<void> {
-  const parsed = revokeSchema.safeParse(Object.fromEntries(form));
+  form = asForm(form);
+  await requireRoleActor("admin");
+  const parsed = revokeSchema.safeParse(formFields(form));
   if (!parsed.success) return;
   await revokeKey(parsed.data.keyId);
   revalidatePath("/stations");
@@ -34,7 +41,9 @@ export async function revokeKeyAction(form: FormData): Promise<void> {
 export type StationState = { ok: boolean; message: string };
 
 export async function createStationAction(_prev: StationState, form: FormData): Promise<StationState> {
-  const parsed = newStationSchema.safeParse(Object.fromEntries(form));
+  form = asForm(form);
+  await requireRoleActor("admin");
+  const parsed = newStationSchema.safeParse(formFields(form));
   if (!parsed.success) return { ok: false, message: parsed.error.issues[0]?.message ?? "Check the form." };
   try {
     await createStation(parsed.data);

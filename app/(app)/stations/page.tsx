@@ -7,6 +7,7 @@ import { ImportProfiles } from "./_components/import-profiles";
 import { NewKeyForm } from "./_components/new-key-form";
 import { NewStationForm } from "./_components/new-station-form";
 import { revokeKeyAction } from "./actions";
+import { ConfirmButton } from "@/components/ui/confirm-button";
 
 export const metadata = { title: "Benches" };
 
@@ -41,7 +42,7 @@ export default async function StationsPage() {
                             {k.revokedAt ? <span className="text-outside-700">Revoked {day(k.revokedAt)}</span> : (
                               <form action={revokeKeyAction}>
                                 <input type="hidden" name="keyId" value={k.id} />
-                                <button type="submit" className="text-sm font-semibold text-outside-700">Revoke</button>
+                                <ConfirmButton label="Revoke" question={`Revoke key ${k.label}? The bench PC using it is refused from then on.`} confirmLabel="Yes, revoke" />
                               </form>
                             )}
                           </td>

@@ -2,13 +2,18 @@
 
 import { revalidatePath } from "next/cache";
 import { HttpError } from "@/lib/auth/guards";
+import { requireRoleActor } from "@/lib/dal/actor";
+import { formFields } from "@/lib/forms/fields";
 import { importProfileEditSchema, importProfileRemoveSchema } from "@/lib/captures/import-profile";
 import { editImportProfile, removeImportProfile } from "@/lib/dal/import-profiles";
+import { asForm } from "@/lib/forms/fields";
 
 export type ProfileState = { ok: boolean; message: string };
 
 export async function editProfileAction(_prev: ProfileState, form: FormData): Promise<ProfileState> {
-  const parsed = importProfileEditSchema.safeParse(Object.fromEntries(form));
+  form = asForm(form);
+  await requireRoleActor("admin", "operator");
+  const parsed = importProfileEditSchema.safeParse(formFields(form));
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     return { ok: false, message: issue ? `${issue.path.slice(1).join(".") || "settings"}: ${issue.message}` : "Check the settings." };
@@ -23,7 +28,9 @@ export async function editProfileAction(_prev: ProfileState, form: FormData): Pr
 }
 
 export async function removeProfileAction(form: FormData): Promise<void> {
-  const parsed = importProfileRemoveSchema.safeParse(Object.fromEntries(form));
+  form = asForm(form);
+  await requireRoleActor("admin", "operator");
+  const parsed = importProfileRemoveSchema.safeParse(formFields(form));
   if (!parsed.success) return;
   await removeImportProfile(parsed.data.profileId).catch((err: unknown) => {
     if (!(err instanceof HttpError)) throw err;

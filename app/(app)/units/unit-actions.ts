@@ -5,6 +5,7 @@ import { redirect } from "next/navigation";
 import { HttpError } from "@/lib/auth/guards";
 import { requireRoleActor } from "@/lib/dal/actor";
 import { createUnit, editUnit, editUnitSchema, findSimilarSerials, newUnitSchema, retireUnit, retireUnitSchema } from "@/lib/dal/unit-admin";
+import { asForm } from "@/lib/forms/fields";
 
 export type UnitFormState = { ok: boolean; message: string; similar?: string[] };
 
@@ -12,6 +13,7 @@ const issues = (e: { issues: { path: PropertyKey[]; message: string }[] }) => e.
 
 /** Registers a unit; a serial close to one on file must be confirmed. */
 export async function createUnitAction(_prev: UnitFormState, form: FormData): Promise<UnitFormState> {
+  form = asForm(form);
   const actor = await requireRoleActor("admin", "operator");
   const raw = { serial: form.get("serial"), ratingId: form.get("ratingId"), confirmNew: form.get("confirmNew") === "on" };
   const parsed = newUnitSchema.safeParse(raw);
@@ -31,6 +33,7 @@ export async function createUnitAction(_prev: UnitFormState, form: FormData): Pr
 }
 
 export async function editUnitAction(_prev: UnitFormState, form: FormData): Promise<UnitFormState> {
+  form = asForm(form);
   const actor = await requireRoleActor("admin", "qa");
   const unitId = String(form.get("unitId") ?? "");
   const parsed = editUnitSchema.safeParse({ serial: form.get("serial") || undefined, ratingId: form.get("ratingId") || undefined, reason: form.get("reason") });
@@ -46,6 +49,7 @@ export async function editUnitAction(_prev: UnitFormState, form: FormData): Prom
 }
 
 export async function retireUnitAction(_prev: UnitFormState, form: FormData): Promise<UnitFormState> {
+  form = asForm(form);
   const actor = await requireRoleActor("admin", "qa");
   const unitId = String(form.get("unitId") ?? "");
   const parsed = retireUnitSchema.safeParse({ retired: form.get("retired") === "true", reason: form.get("reason") });

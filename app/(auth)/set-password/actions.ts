@@ -3,6 +3,7 @@
 import { redirect } from "next/navigation";
 import { z } from "zod";
 import { setPasswordWithLink } from "@/lib/dal/password-link";
+import { asForm } from "@/lib/forms/fields";
 
 const setPasswordSchema = z
   .object({
@@ -13,6 +14,7 @@ const setPasswordSchema = z
   .refine((v) => v.password === v.confirm, { message: "The two passwords differ.", path: ["confirm"] });
 
 export async function setPassword(_prev: string, form: FormData): Promise<string> {
+  form = asForm(form);
   const parsed = setPasswordSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return parsed.error.issues[0]?.message ?? "Check the form.";
   const done = await setPasswordWithLink(parsed.data.token, parsed.data.password);

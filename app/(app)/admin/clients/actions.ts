@@ -5,12 +5,14 @@ import { z } from "zod";
 import { requireRole } from "@/lib/auth/guards";
 import { createClient, setClientActive, updateClient } from "@/lib/dal/clients";
 import { refusedForm, type SetupFormState } from "@/lib/dal/setup-access";
+import { asForm } from "@/lib/forms/fields";
 
 const idSchema = z.object({ clientId: z.uuid("No such client") });
 const toggleSchema = idSchema.extend({ active: z.enum(["true", "false"], { error: "active must be true or false" }) });
 
 /** Creates a client linked to the lab, or (with clientId) edits one. Lab managers only. */
 export async function saveClientAction(_prev: SetupFormState, form: FormData): Promise<SetupFormState> {
+  form = asForm(form);
   await requireRole("admin");
   const raw = Object.fromEntries(form);
   const { clientId, ...fields } = raw;
@@ -32,6 +34,7 @@ export async function saveClientAction(_prev: SetupFormState, form: FormData): P
 
 /** Deactivates or reactivates a client of the lab. */
 export async function setClientActiveAction(form: FormData): Promise<void> {
+  form = asForm(form);
   await requireRole("admin");
   const parsed = toggleSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return;

@@ -5,6 +5,7 @@ import { z } from "zod";
 import { requireRole } from "@/lib/auth/guards";
 import { ROLES } from "@/lib/auth/roles";
 import { invitePerson, setPersonDisabled } from "@/lib/dal/people";
+import { asForm } from "@/lib/forms/fields";
 
 const inviteSchema = z.object({
   email: z.email("Enter a valid email address.").max(254),
@@ -19,6 +20,7 @@ type InviteFields = keyof z.infer<typeof inviteSchema>;
 export type InviteState = { ok: boolean; message: string; fieldErrors?: Partial<Record<InviteFields, string>>; values?: Partial<Record<InviteFields, string>> };
 
 export async function inviteUser(_prev: InviteState, form: FormData): Promise<InviteState> {
+  form = asForm(form);
   await requireRole("admin");
   const raw = Object.fromEntries(form);
   const values = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, typeof v === "string" ? v.slice(0, 254) : ""]));
@@ -37,6 +39,7 @@ export async function inviteUser(_prev: InviteState, form: FormData): Promise<In
 const toggleSchema = z.object({ userId: z.uuid(), disable: z.enum(["true", "false"]) });
 
 export async function toggleUser(form: FormData): Promise<void> {
+  form = asForm(form);
   await requireRole("admin");
   const parsed = toggleSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return;

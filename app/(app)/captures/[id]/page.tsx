@@ -1,11 +1,11 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { CaptureDetails } from "@/components/captures/capture-details";
 import { CaptureLive } from "@/components/captures/capture-live";
 import { fmtDate } from "@/components/captures/format";
 import { PageHeader } from "@/components/shell/page-header";
 import { SafetyCaution } from "@/components/shell/safety-caution";
 import { StatusTag } from "@/components/ui/status-tag";
-import { TEST_KIND_LABELS } from "@/lib/captures/input-schemas";
 import { getCapturePageView } from "@/lib/dal/captures";
 
 export const metadata = { title: "Capture" };
@@ -15,9 +15,7 @@ export default async function CapturePage({ params }: { params: Promise<{ id: st
   // Another organisation's capture is indistinguishable from a missing one.
   if (!view) notFound();
   const { capture: c, history } = view;
-  const roles = Object.entries(c.channelRoles);
   const channels = c.analysis ? c.analysis.report.channels.map((ch) => ch.id) : Object.keys(c.channelRoles);
-  const scales = Object.entries(c.probeScales).map(([k, v]) => `${k} ×${v}`).concat(Object.entries(c.channelOffsets).map(([k, v]) => `${k} ${v >= 0 ? "+" : ""}${v}`));
   return (
     <>
       <PageHeader
@@ -26,18 +24,10 @@ export default async function CapturePage({ params }: { params: Promise<{ id: st
         actions={c.state !== "uploading" ? <a href={`/api/captures/${c.id}/raw`} className="rounded-md bg-white px-4 py-2 text-sm font-semibold ring-1 ring-ink-200">Download raw CSV</a> : null}
       />
       <div className="mb-6"><SafetyCaution compact /></div>
-      <dl className="mb-6 grid grid-cols-2 gap-4 rounded-lg bg-white p-5 text-sm shadow-sm ring-1 ring-ink-200 md:grid-cols-4">
-        <div><dt className="text-ink-600">Test</dt><dd className="mt-1 font-semibold">{TEST_KIND_LABELS[c.testKind as keyof typeof TEST_KIND_LABELS] ?? c.testKind}</dd></div>
-        <div><dt className="text-ink-600">Shaft speed</dt><dd className="mt-1">{c.speedRpm ? `${c.speedRpm} rpm` : "—"}</dd></div>
-        <div><dt className="text-ink-600">Bench</dt><dd className="mt-1">{c.stationName ?? "—"}</dd></div>
-        <div><dt className="text-ink-600">Uploaded</dt><dd className="mt-1">{fmtDate(c.uploadedAt ?? c.createdAt)}{c.uploadedBy ? ` by ${c.uploadedBy}` : ""}</dd></div>
-        <div className="col-span-2"><dt className="text-ink-600">Channel roles</dt><dd className="mt-1 font-mono text-xs">{roles.length ? roles.map(([k, v]) => `${k} → ${v}`).join(" · ") : "from the headers"}</dd></div>
-        <div className="col-span-2"><dt className="text-ink-600">Probe ratios and offsets</dt><dd className="mt-1 font-mono text-xs">{scales.length ? scales.join(" · ") : "none entered (×1)"}</dd></div>
-        <div><dt className="text-ink-600">Size</dt><dd className="mt-1 tabular-nums">{(c.sizeBytes / 1024 ** 2).toFixed(2)} MiB</dd></div>
-        <div><dt className="text-ink-600">sha256</dt><dd className="mt-1 truncate font-mono text-xs" title={c.sha256}>{c.sha256}</dd></div>
-        {c.notes ? <div className="col-span-full"><dt className="text-ink-600">Notes</dt><dd className="mt-1 whitespace-pre-wrap">{c.notes}</dd></div> : null}
-      </dl>
-      <CaptureLive initial={c} canReanalyse={view.canReanalyse} correction={view.canCorrect ? { channels, planSteps: view.planSteps } : null} />
+      <CaptureLive
+        initial={c} canReanalyse={view.canReanalyse} correction={view.canCorrect ? { channels, planSteps: view.planSteps } : null}
+        details={<CaptureDetails capture={c} />}
+      />
       {view.corrections.length > 0 ? (
         <section className="mt-8" aria-labelledby="corrections">
           <h2 id="corrections" className="mb-2 text-lg font-semibold">Corrections</h2>

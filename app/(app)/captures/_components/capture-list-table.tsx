@@ -29,21 +29,22 @@ export function CaptureListTable({ rows, query, link }: { rows: Rows; query: Cap
       <table className="min-w-full text-sm" aria-label="Captures">
         <thead className="bg-ink-100 text-left text-xs uppercase tracking-wide text-ink-600">
           <tr>
+            <th className="sticky left-0 z-10 bg-ink-100 px-3 py-2">Verdict</th>
             {head("Captured (UTC)", "captured")}
             <th className="px-3 py-2">Unit</th><th className="px-3 py-2">Test</th><th className="px-3 py-2">File</th>
-            <th className="px-3 py-2">State</th><th className="px-3 py-2">Verdict</th>
+            <th className="px-3 py-2">State</th>
             {head("f (Hz)", "frequency")}{head("THD (%)", "thd")}{head("VUF (%)", "vuf")}{head("Ke (V/krpm)", "ke")}
           </tr>
         </thead>
         <tbody>
           {rows.map((r) => (
             <tr key={r.id} className="border-t border-ink-100 align-top">
+              <td className="sticky left-0 z-10 bg-white px-3 py-2" data-testid="verdict-cell">{r.state === "analysed" ? <StatusTag status={r.overall} /> : "—"}</td>
               <td className="whitespace-nowrap px-3 py-2 tabular-nums">{r.createdAt.slice(0, 16).replace("T", " ")}</td>
               <td className="px-3 py-2 font-mono"><Link href={`/units/${r.unitId}`}>{r.serial}</Link></td>
               <td className="px-3 py-2">{TEST_KIND_LABELS[r.testKind as keyof typeof TEST_KIND_LABELS] ?? r.testKind}</td>
               <td className="px-3 py-2 font-mono"><Link href={`/captures/${r.id}`}>{r.originalName}</Link></td>
               <td className="px-3 py-2" title={r.stateMessage ?? undefined}><CaptureStateBadge state={r.state} progress={r.progress} /></td>
-              <td className="px-3 py-2">{r.state === "analysed" ? <StatusTag status={r.overall} /> : "—"}</td>
               <CaptureFigureCells row={r} cellClass="px-3 py-2" />
             </tr>
           ))}

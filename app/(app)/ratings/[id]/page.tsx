@@ -6,6 +6,7 @@ import { HttpError } from "@/lib/auth/guards";
 import { requireRoleActor } from "@/lib/dal/actor";
 import { getRatingPageView } from "@/lib/dal/rating-page";
 import { rejudgeRatingAction, setRatingRetiredAction, updateRatingAction } from "../actions";
+import { ConfirmButton } from "@/components/ui/confirm-button";
 import { PlanSection } from "./_components/plan-section";
 import { ProfileSection } from "./_components/profile-section";
 
@@ -59,7 +60,9 @@ export default async function RatingPage({ params, searchParams }: { params: Pro
             <form action={setRatingRetiredAction}>
               <input type="hidden" name="ratingId" value={rating.id} />
               <input type="hidden" name="retired" value={rating.retiredAt ? "false" : "true"} />
-              <button type="submit" className="text-sm font-semibold text-outside-700">{rating.retiredAt ? "Bring back into use" : "Retire rating"}</button>
+              {rating.retiredAt ? <button type="submit" className="text-sm font-semibold text-outside-700">Bring back into use</button> : (
+                <ConfirmButton label="Retire rating" question="Retire this rating? No new units can be registered against it; its units and captures stay." confirmLabel="Yes, retire it" />
+              )}
             </form>
           </div>
         ) : null}

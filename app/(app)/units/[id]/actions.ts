@@ -4,6 +4,7 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { requireRole } from "@/lib/auth/guards";
 import { recordUnitDisposition } from "@/lib/dal/dispositions";
+import { asForm } from "@/lib/forms/fields";
 
 const dispositionSchema = z.object({
   unitId: z.uuid(),
@@ -14,6 +15,7 @@ const dispositionSchema = z.object({
 export type DispositionState = { ok: boolean; message: string; values?: { to: string; comment: string } };
 
 export async function setDisposition(_prev: DispositionState, form: FormData): Promise<DispositionState> {
+  form = asForm(form);
   await requireRole("qa", "admin");
   const parsed = dispositionSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return { ok: false, message: "Pick a disposition." };

@@ -4,10 +4,12 @@ import { revalidatePath } from "next/cache";
 import { requireRole } from "@/lib/auth/guards";
 import { deleteAttachmentSchema } from "@/lib/attachments/rules";
 import { removeAttachmentAs } from "@/lib/dal/attachments";
+import { asForm } from "@/lib/forms/fields";
 
 export type RemoveAttachmentState = { ok: boolean; message: string };
 
 export async function removeAttachment(_prev: RemoveAttachmentState, form: FormData): Promise<RemoveAttachmentState> {
+  form = asForm(form);
   const user = await requireRole("qa", "admin");
   const parsed = deleteAttachmentSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return { ok: false, message: "That is not an attachment." };

@@ -1,11 +1,11 @@
 import { notFound } from "next/navigation";
 import { UnitCapturesTable } from "@/components/captures/unit-captures-table";
 import { PageHeader } from "@/components/shell/page-header";
-import { StatusTag } from "@/components/ui/status-tag";
 import { getUnitCaptureRows } from "@/lib/dal/captures";
 import { getUnitHistoryView } from "@/lib/dal/review";
 import { getUnitRatingChoices, getUnitView } from "@/lib/dal/units";
 import { PLAN_STATE_WORDS, PlanPanel } from "@/components/units/plan-panel";
+import { UnitSummary } from "@/components/units/unit-summary";
 import { getUnitPlanView } from "@/lib/dal/unit-plan";
 import { DispositionPanel } from "./_components/disposition-panel";
 import { RecordChoice } from "./_components/record-choice";
@@ -34,13 +34,10 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
           </>
         }
       />
-      <dl className="grid grid-cols-2 gap-4 rounded-lg bg-white p-5 text-sm shadow-sm ring-1 ring-ink-200 md:grid-cols-4">
-        <div><dt className="text-ink-600">Latest verdict</dt><dd className="mt-1"><StatusTag status={unit.latestOverall} /></dd></div>
-        <div><dt className="text-ink-600">Test plan</dt><dd className="mt-1 font-semibold">{plan ? PLAN_STATE_WORDS[plan.state] : "—"}</dd></div>
-        <div><dt className="text-ink-600">Disposition</dt><dd className="mt-1 font-semibold">{unit.disposition}</dd></div>
-        <div><dt className="text-ink-600">Registered</dt><dd className="mt-1">{unit.createdAt.toISOString().slice(0, 10)}</dd></div>
-        <div><dt className="text-ink-600">Model</dt><dd className="mt-1 font-mono">{rating.modelCode}</dd></div>
-      </dl>
+      <UnitSummary
+        latestOverall={unit.latestOverall} planState={plan ? PLAN_STATE_WORDS[plan.state] : "—"} disposition={unit.disposition}
+        registered={unit.createdAt.toISOString().slice(0, 10)} modelCode={rating.modelCode} nameplate={rating.nameplate}
+      />
       {plan ? (
         <PlanPanel
           state={plan.state} steps={plan.steps} keFit={plan.keFit}

@@ -1,16 +1,17 @@
 import { PlanStepForm } from "@/components/ratings/plan-step-form";
+import { ConfirmButton } from "@/components/ui/confirm-button";
 import type { CheckId } from "@/lib/analysis";
 import { movePlanStepAction, retirePlanStepAction, savePlanStepAction } from "../../actions";
 
 type Step = { id: string; name: string; testKindLabel: string; testKind: string; speedWindow: string; speedMinRpm: number; speedMaxRpm: number; requiredRoles: string[]; requiredRoleLabels: string[]; checks: string[]; checkLabels: string[] };
 
-function StepButton({ action, ratingId, stepId, label, extra }: { action: (f: FormData) => Promise<void>; ratingId: string; stepId: string; label: string; extra?: Record<string, string> }) {
+function StepButton({ action, ratingId, stepId, label, extra, confirm }: { action: (f: FormData) => Promise<void>; ratingId: string; stepId: string; label: string; extra?: Record<string, string>; confirm?: string }) {
   return (
     <form action={action} className="inline">
       <input type="hidden" name="ratingId" value={ratingId} />
       <input type="hidden" name="stepId" value={stepId} />
       {Object.entries(extra ?? {}).map(([k, v]) => <input key={k} type="hidden" name={k} value={v} />)}
-      <button type="submit" className="text-sm font-semibold text-copper-700">{label}</button>
+      {confirm ? <ConfirmButton label={label} question={confirm} confirmLabel={`Yes, ${label.toLowerCase()}`} /> : <button type="submit" className="text-sm font-semibold text-copper-700">{label}</button>}
     </form>
   );
 }
@@ -32,7 +33,7 @@ export function PlanSection({ ratingId, steps, canEdit, judgedChecks, ratedSpeed
                 <div className="mt-2 flex flex-wrap gap-4">
                   {i > 0 ? <StepButton action={movePlanStepAction} ratingId={ratingId} stepId={s.id} label="Move up" extra={{ by: "-1" }} /> : null}
                   {i < steps.length - 1 ? <StepButton action={movePlanStepAction} ratingId={ratingId} stepId={s.id} label="Move down" extra={{ by: "1" }} /> : null}
-                  <StepButton action={retirePlanStepAction} ratingId={ratingId} stepId={s.id} label="Retire step" />
+                  <StepButton action={retirePlanStepAction} ratingId={ratingId} stepId={s.id} label="Retire step" confirm={`Retire step “${s.name}”? Units of this rating no longer need it; its captures stay.`} />
                   <details className="w-full">
                     <summary className="cursor-pointer text-sm font-semibold text-copper-700">Edit step</summary>
                     <div className="mt-3"><PlanStepForm action={savePlanStepAction} ratingId={ratingId} judgedChecks={judgedChecks} ratedSpeedRpm={ratedSpeedRpm} step={s} /></div>

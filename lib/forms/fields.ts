@@ -1,0 +1,13 @@
+/**
+ * A server action's form argument as FormData. A direct POST can pass any value; anything that is not
+ * FormData becomes an empty form, so the action answers with its own "check the form" message and
+ * never a server error.
+ */
+export function asForm(form: unknown): FormData {
+  return form instanceof FormData ? form : new FormData();
+}
+
+/** The fields of a server action's form argument (none when the caller sent something else). */
+export function formFields(form: unknown): Record<string, FormDataEntryValue> {
+  return Object.fromEntries(asForm(form));
+}
