@@ -44,29 +44,33 @@ afterAll(async () => {
 });
 
 describe("alertOnCaptureResult (capture alerts)", () => {
+  // A fresh hour per run (the test database is kept between runs); counts are per engineer, since other
+  // tests may add quality engineers to the lab.
+  const hourOf = (d: Date) => d.toISOString().slice(0, 13);
+  const base = new Date(Date.UTC(2031, 0, 1, 10, 5) + Number(run) * 7_200_000);
+  const mine = async (at: Date) => (await mailsWhere(`capture-alert:${unit.id}:${qaId}:${hourOf(at)}`)).length;
+
   it("queues one alert per unit and engineer per hour; a second result in the hour adds none; a pass adds none", async () => {
-    const now = new Date(Date.UTC(2031, 0, 1, 10, 5));
-    const before = (await mailsWhere(`capture-alert:${unit.id}:${qaId}:2031-01-01T10`)).length;
-    const first = await alertOnCaptureResult(labId, await failingCapture("a", "fail"), { now, enqueue: false });
-    const second = await alertOnCaptureResult(labId, await failingCapture("b", "inconclusive"), { now: new Date(now.getTime() + 20 * 60_000), enqueue: false });
-    const passed = await alertOnCaptureResult(labId, await failingCapture("c", "pass"), { now, enqueue: false });
-    expect(before).toBe(0);
-    expect(first.queued).toBe(1);
-    expect(second.queued).toBe(0);
-    expect(passed.queued).toBe(0);
-    const rows = await mailsWhere(`capture-alert:${unit.id}:${qaId}:2031-01-01T10`);
+    expect(await mine(base)).toBe(0);
+    await alertOnCaptureResult(labId, await failingCapture("a", "fail"), { now: base, enqueue: false });
+    expect(await mine(base)).toBe(1);
+    await alertOnCaptureResult(labId, await failingCapture("b", "inconclusive"), { now: new Date(base.getTime() + 20 * 60_000), enqueue: false });
+    await alertOnCaptureResult(labId, await failingCapture("c", "pass"), { now: base, enqueue: false });
+    const rows = await mailsWhere(`capture-alert:${unit.id}:${qaId}:${hourOf(base)}`);
     expect(rows).toHaveLength(1);
     expect(rows[0]!.subject).toContain("outside tolerance");
     expect(rows[0]!.htmlBody).toContain("<a href=");
-    const nextHour = await alertOnCaptureResult(labId, await failingCapture("d", "fail"), { now: new Date(now.getTime() + 60 * 60_000), enqueue: false });
-    expect(nextHour.queued).toBe(1);
+    const next = new Date(base.getTime() + 60 * 60_000);
+    await alertOnCaptureResult(labId, await failingCapture("d", "fail"), { now: next, enqueue: false });
+    expect(await mine(next)).toBe(1);
   });
 
   it("alertOnCaptureResult sends nothing to an engineer who chose the daily digest", async () => {
     await getDb().update(notificationPrefs).set({ prefs: { captureAlerts: "daily-digest" } }).where(eq(notificationPrefs.userId, qaId));
+    const at = new Date(base.getTime() + 5 * 3_600_000);
     try {
-      const r = await alertOnCaptureResult(labId, await failingCapture("e", "fail"), { now: new Date(Date.UTC(2031, 0, 2, 8)), enqueue: false });
-      expect(r.queued).toBe(0);
+      await alertOnCaptureResult(labId, await failingCapture("e", "fail"), { now: at, enqueue: false });
+      expect(await mine(at)).toBe(0);
     } finally {
       await getDb().update(notificationPrefs).set({ prefs: { captureAlerts: "hourly" } }).where(eq(notificationPrefs.userId, qaId));
     }
