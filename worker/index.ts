@@ -5,6 +5,10 @@ import { setCaptureState } from "@/db/queries/captures";
 import { getEnv } from "@/lib/server/env";
 import { ANALYSIS_QUEUE, closeAnalysisQueue, createRedis, type AnalysisJobData } from "@/lib/server/queue";
 import { logDetail } from "@/lib/server/outage";
+import { enqueueQueuedMails } from "@/lib/server/mail-outbox";
+import { closeMailQueue } from "@/lib/server/mail-queue";
+import { mailIdsOf, sweepMail } from "./mail-sweep";
+import { startMailWorker } from "./mail-worker";
 import { sweepAbandonedUploads } from "./abandoned-uploads";
 import { queueCalibrationReminders } from "./calibration-reminders";
 import { failureMessage, isOutageReason } from "./processors/messages";
@@ -30,8 +34,13 @@ const worker = new Worker<AnalysisJobData>(ANALYSIS_QUEUE, processorFile, {
   maxStalledCount: 2,
 });
 
+const mailWorker = startMailWorker(connection, log);
+
 worker.on("error", (err) => console.error(`worker error: ${err.message}`));
-worker.on("completed", (job: Job<AnalysisJobData>, result: unknown) => log(`${job.id} ${JSON.stringify(result)}`));
+worker.on("completed", (job: Job<AnalysisJobData>, result: unknown) => {
+  log(`${job.id} ${JSON.stringify(result)}`);
+  void enqueueQueuedMails(mailIdsOf(result));
+});
 worker.on("failed", (job: Job<AnalysisJobData> | undefined, err: Error) => {
   if (!job) return;
   const outage = isOutageReason(err.message);
@@ -87,6 +96,7 @@ async function runSweep(reason: string): Promise<void> {
       remindedOn = today;
       if (queued) log(`sweep (${reason}): ${queued} calibration reminder(s) queued`);
     }
+    await sweepMail(reason, log);
   } catch (err) {
     console.error(`sweep (${reason}) failed: ${logDetail(err)}`);
     scheduleSweep(`retry of the ${reason} sweep`, 5_000);
@@ -124,8 +134,9 @@ async function shutdown(signal: string): Promise<void> {
     process.exit(1);
   }, SHUTDOWN_GRACE_MS).unref();
   try {
-    await worker.close();
+    await Promise.all([worker.close(), mailWorker.close()]);
     await closeAnalysisQueue();
+    await closeMailQueue();
     await connection.quit();
     await closeDb();
   } catch (err) {

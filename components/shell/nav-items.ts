@@ -16,13 +16,15 @@ const ITEMS: Record<string, NavItem> = {
   people: { href: "/admin/people", label: "People" },
   mailbox: { href: "/admin/mailbox", label: "Outbox" },
   lab: { href: "/admin/lab", label: "Lab settings" },
+  portal: { href: "/portal", label: "Released reports" },
+  tokens: { href: "/portal/tokens", label: "API tokens" },
 };
 
 const BY_ROLE: Record<Role, (keyof typeof ITEMS)[]> = {
   admin: ["home", "units", "captures", "upload", "review", "trends", "ratings", "stations", "instruments", "clients", "people", "mailbox", "lab"],
   operator: ["home", "upload", "captures", "units", "ratings", "stations"],
   qa: ["home", "review", "units", "captures", "trends", "ratings", "instruments"],
-  manufacturer: ["home", "units"],
+  manufacturer: ["home", "units", "portal", "tokens"],
 };
 
 export function navFor(role: Role): NavItem[] {

@@ -1,6 +1,6 @@
 import { eq, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { instruments, labClients, organisations, planSteps, ratings, stationInstruments, stations, toleranceProfiles, units, users } from "@/db/schema";
+import { clientAdmins, instruments, labClients, organisations, planSteps, ratings, stationInstruments, stations, toleranceProfiles, units, users } from "@/db/schema";
 import { demoInstruments, demoOrganisations, demoRatings, demoStations, demoUnits, demoUsers, secondLab } from "@/db/seed-data";
 import { profileFromPreset, speedWindow } from "@/lib/analysis";
 
@@ -20,6 +20,9 @@ export async function insertDemoScenario(passwordHash: string): Promise<boolean>
     await tx.insert(labClients).values(orgRows.filter((o) => o.kind === "manufacturer").map((o) => ({ labId, clientId: o.id })));
     const userRows = await tx.insert(users).values(demoUsers.map((u) => ({ email: u.email, name: u.name, role: u.role, organisationId: orgId(u.org), passwordHash }))).returning();
     const manager = userRows.find((u) => u.role === "admin");
+    // Each client's first user manages its API tokens (a lab manager can grant it to others).
+    const clientAdminIds = [...new Map(userRows.filter((u) => u.role === "manufacturer").map((u) => [u.organisationId, u.id])).values()];
+    if (clientAdminIds.length > 0) await tx.insert(clientAdmins).values(clientAdminIds.map((userId) => ({ userId, grantedById: manager?.id ?? null })));
     const stationRows = await tx.insert(stations).values(demoStations.map((s) => ({ ...s, labId }))).returning();
     await insertDemoInstruments(tx, labId, manager?.id ?? null, stationRows.map((s) => s.id));
     for (const r of demoRatings) {

@@ -63,7 +63,7 @@ export async function insertUser(values: { email: string; name: string; role: Ro
 }
 
 export async function findUserIdByEmail(email: string) {
-  const rows = await getDb().select({ id: users.id, name: users.name }).from(users)
+  const rows = await getDb().select({ id: users.id, name: users.name, organisationId: users.organisationId }).from(users)
     .where(and(eq(sql`lower(${users.email})`, email.toLowerCase()), isNull(users.disabledAt))).limit(1);
   return rows[0];
 }

@@ -1,8 +1,10 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
+import { senderLabNameFor } from "@/db/queries/mail-recipients";
 import { insertPasswordToken } from "@/db/queries/password-tokens";
+import { invitationMail, passwordResetMail } from "@/lib/mail/account-links";
 import { getEnv } from "@/lib/server/env";
-import { sendMail } from "@/lib/server/mail";
+import { queueMail } from "@/lib/server/mail-outbox";
 
 const TTL_S = { invite: 7 * 24 * 3600, reset: 3600 } as const;
 
@@ -10,14 +12,24 @@ export function hashToken(token: string): string {
   return createHash("sha256").update(token).digest("hex");
 }
 
-/** Creates a one-time link and mails it. The token exists only in the mail. */
-export async function sendPasswordLink(user: { id: string; email: string; name: string }, purpose: "invite" | "reset"): Promise<void> {
+/** Who invited whom, to which organisation, with which role (named in the invitation). */
+export type InvitationContext = { labId: string; labName: string; inviterName: string; organisationName: string; roleLabel: string };
+
+type LinkUser = { id: string; email: string; name: string; organisationId?: string };
+
+/** Creates a one-time link and queues its mail (the outbox job sends it). The token exists only in the mail. */
+export async function sendPasswordLink(user: LinkUser, purpose: "invite" | "reset", invitation?: InvitationContext): Promise<void> {
   const token = randomBytes(32).toString("base64url");
   await insertPasswordToken(user.id, purpose, hashToken(token), TTL_S[purpose]);
   const link = new URL(`/set-password?token=${token}`, getEnv().NEXTAUTH_URL).toString();
-  const text =
-    purpose === "invite"
-      ? `Hello ${user.name},\n\nYou have been given an Emfolio account. Choose your password here (the link works once, for 7 days):\n\n${link}\n`
-      : `Hello ${user.name},\n\nSomeone asked to reset your Emfolio password. If it was you, choose a new one here (the link works once, for 1 hour):\n\n${link}\n\nIf it was not you, ignore this message: your password stays as it is.\n`;
-  await sendMail({ to: user.email, subject: purpose === "invite" ? "Your Emfolio account" : "Reset your Emfolio password", text });
+  const labName = invitation?.labName ?? (user.organisationId ? await senderLabNameFor(user.organisationId).catch(() => undefined) : undefined) ?? "Emfolio";
+  const mail = purpose === "invite" && invitation
+    ? invitationMail({ inviteeName: user.name, inviterName: invitation.inviterName, organisationName: invitation.organisationName, roleLabel: invitation.roleLabel, labName, link })
+    : purpose === "invite"
+      ? invitationMail({ inviteeName: user.name, inviterName: labName, organisationName: labName, roleLabel: "member", labName, link })
+      : passwordResetMail({ name: user.name, labName, link });
+  await queueMail({
+    labId: invitation?.labId ?? null, toUserId: user.id, toAddress: user.email, kind: purpose === "invite" ? "invitation" : "password-reset",
+    subject: mail.subject, textBody: mail.text, htmlBody: mail.html, fromName: labName,
+  });
 }

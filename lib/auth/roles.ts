@@ -34,6 +34,7 @@ export const PATH_RULES: ReadonlyArray<{ prefix: string; roles: readonly Role[] 
   { prefix: "/units", roles: ROLES },
   { prefix: "/captures", roles: ROLES },
   { prefix: "/reports", roles: ROLES },
+  { prefix: "/portal", roles: ["manufacturer"] },
 ];
 
 export function rolesForPath(pathname: string): readonly Role[] | null {

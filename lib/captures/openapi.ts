@@ -4,6 +4,7 @@ import { captureState } from "@/db/schema";
 import { captureCorrectionSchema, captureRegistrationSchema, completeUploadSchema, presignPartsSchema, TEST_KINDS } from "./input-schemas";
 import { CAPTURE_SORTS, CAPTURE_VERDICT_FILTERS } from "./list-query";
 import { ratingPaths, ratingSchemas, sessionScheme } from "./openapi-ratings";
+import { clientTokenScheme, reportPaths } from "./openapi-reports";
 
 // The bench API's OpenAPI 3.1 document, built from the same zod schemas the handlers parse with.
 
@@ -58,7 +59,7 @@ export function buildOpenApiDocument(serverUrl: string) {
     openapi: "3.1.0",
     info: {
       title: "Emfolio bench API", version: "1",
-      description: "Upload captures from a bench PC and read their analysis. Authenticate with a station key: `Authorization: Bearer emk_<prefix>.<secret>`. The ratings routes also accept a signed-in session (reads with either; changes need a lab manager's or quality engineer's session). See docs/bench-api.md for a complete curl session.",
+      description: "Upload captures from a bench PC and read their analysis. Authenticate with a station key: `Authorization: Bearer emk_<prefix>.<secret>`. The ratings routes also accept a signed-in session (reads with either; changes need a lab manager's or quality engineer's session). See docs/bench-api.md for a complete curl session. Clients read their released reports under /api/v1/reports with a personal token (docs/client-api.md).",
     },
     servers: [{ url: serverUrl }],
     security: [{ stationKey: [] }],
@@ -103,9 +104,10 @@ export function buildOpenApiDocument(serverUrl: string) {
         },
       },
       ...ratingPaths,
+      ...reportPaths,
     },
     components: {
-      securitySchemes: { stationKey: { type: "http", scheme: "bearer", description: "A station key created by a lab manager on the Benches page" }, session: sessionScheme },
+      securitySchemes: { stationKey: { type: "http", scheme: "bearer", description: "A station key created by a lab manager on the Benches page" }, session: sessionScheme, clientToken: clientTokenScheme },
       schemas: {
         Error: { type: "object", required: ["error"], properties: { error: { type: "string" } } },
         CaptureRegistration: json(captureRegistrationSchema),

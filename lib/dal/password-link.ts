@@ -29,7 +29,7 @@ export async function acceptPasswordResetRequest(email: string, address: string)
 async function requestPasswordResetLink(email: string): Promise<void> {
   const user = await findUserIdByEmail(email);
   if (user && (await countRecentTokens(user.id, "reset", 3600)) < 3) {
-    await sendPasswordLink({ id: user.id, email, name: user.name }, "reset");
+    await sendPasswordLink({ id: user.id, email, name: user.name, organisationId: user.organisationId }, "reset");
   }
 }
 

@@ -5,6 +5,7 @@ import type { Role } from "@/db/schema";
 import { requireRole } from "@/lib/auth/guards";
 import { hashPassword } from "@/lib/auth/password";
 import { sendPasswordLink } from "@/lib/auth/password-links";
+import { ROLE_LABELS } from "@/lib/auth/roles";
 
 export async function getPeopleView() {
   const admin = await requireRole("admin");
@@ -38,7 +39,9 @@ export async function invitePerson(input: Invitation): Promise<InviteOutcome> {
     return { ok: false, message: "An account with that email already exists.", field: "email" };
   }
   if (!created) return { ok: false, message: "The account was not created." };
-  await sendPasswordLink({ id: created.id, email: input.email, name: input.name }, "invite");
+  await sendPasswordLink({ id: created.id, email: input.email, name: input.name }, "invite", {
+    labId: admin.organisationId, labName: admin.organisationName, inviterName: admin.name, organisationName: org.name, roleLabel: ROLE_LABELS[input.role],
+  });
   return { ok: true };
 }
 

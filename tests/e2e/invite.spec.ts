@@ -12,8 +12,12 @@ test("an admin invites a quality engineer, who sets a password from the mailed l
   await page.getByRole("button", { name: "Send invitation" }).click();
   await expect(page.getByText(`Invitation sent to ${email}.`)).toBeVisible();
 
-  await page.goto("/admin/mailbox");
+  // Mail goes through the outbox and the worker's mail job: reload until it arrives.
   const message = page.locator("details", { hasText: email }).first();
+  await expect(async () => {
+    await page.goto("/admin/mailbox");
+    await expect(message).toBeVisible({ timeout: 1000 });
+  }).toPass({ timeout: 30_000 });
   await message.locator("summary").click();
   const body = await message.locator("pre").innerText();
   const link = body.match(/https?:\/\/\S+\/set-password\?token=\S+/)?.[0];

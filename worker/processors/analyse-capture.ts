@@ -9,6 +9,7 @@ import { logDetail, outageSentence, ServiceOutage, talkingTo } from "@/lib/serve
 import type { AnalysisJobData } from "@/lib/server/queue";
 import { refreshUnitPlanState } from "@/db/queries/unit-plan";
 import { ConfigurationProblem, loadJudgement } from "@/lib/server/judgement";
+import { alertOnCaptureResult } from "@/lib/server/mail-capture-alerts";
 import { rideOutages } from "../outage-ride";
 import { failureMessage } from "./messages";
 import { runAnalysis } from "./run-analysis";
@@ -23,7 +24,8 @@ const PROGRESS_EVERY_MS = 500;
 // A forked child outliving its worker would finish jobs nobody holds a lock for: leave with the parent.
 if (process.send) process.on("disconnect", () => process.exit(1));
 
-export type AnalyseOutcome = { outcome: "analysed" | "skipped" | "superseded" };
+/** `mailIds`: capture alerts written to the outbox; the parent enqueues them (this child never talks to Redis). */
+export type AnalyseOutcome = { outcome: "analysed" | "skipped" | "superseded"; mailIds?: string[] };
 
 export default async function analyseCaptureJob(job: SandboxedJob<AnalysisJobData>): Promise<AnalyseOutcome> {
   const { captureId, labId } = job.data;
@@ -56,7 +58,9 @@ export default async function analyseCaptureJob(job: SandboxedJob<AnalysisJobDat
     await pending;
     const stored = await rideOutages("store the report", () => db(() => recordAnalysis(scope, analysis)), ride);
     if (stored) await rideOutages("refresh the unit's plan", () => db(() => refreshUnitPlanState(scope, claimed.unit.id)), ride);
-    return { outcome: stored ? "analysed" : "superseded" };
+    // Outside tolerance or inconclusive: alert the quality engineers (never fails the job).
+    const alerts = stored ? await alertOnCaptureResult(labId, captureId, { enqueue: false }) : { ids: [] };
+    return { outcome: stored ? "analysed" : "superseded", mailIds: alerts.ids };
   } catch (err) {
     await pending;
     if (isCaptureRejection(err)) {

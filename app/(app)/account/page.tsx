@@ -1,14 +1,19 @@
 import { PageHeader } from "@/components/shell/page-header";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
+import { getMyNotificationPrefs } from "@/lib/dal/notification-prefs";
 import { getMySessionsView } from "@/lib/dal/sessions";
+import { NotificationPrefsForm } from "./_components/notification-prefs-form";
 import { endOtherSessionsAction, signOutEverywhereAction } from "./actions";
 
 export const metadata = { title: "Your sessions" };
 
 export default async function AccountPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const { live } = await getMySessionsView();
-  const ended = Number((await searchParams).ended);
+  const params = await searchParams;
+  const ended = Number(params.ended);
+  const mail = await getMyNotificationPrefs();
+  const prefsNote = typeof params.prefs === "string" ? params.prefs : undefined;
   return (
     <div className="space-y-6">
       <PageHeader title="Your sessions" />
@@ -21,6 +26,8 @@ export default async function AccountPage({ searchParams }: { searchParams: Prom
         <form action={endOtherSessionsAction}><Button type="submit" tone="quiet">End my other sessions</Button></form>
         <form action={signOutEverywhereAction}><Button type="submit" tone="danger">Sign out everywhere</Button></form>
       </div>
+      {prefsNote ? <Notice kind={prefsNote === "saved" ? "done" : "problem"}>{prefsNote === "saved" ? "Your mail choices are saved." : prefsNote.slice(0, 200)}</Notice> : null}
+      <NotificationPrefsForm prefs={mail.prefs} role={mail.role} />
     </div>
   );
 }

@@ -1,14 +1,7 @@
 import type { UnitRecord } from "@/lib/dal/unit-report";
+import { csvCell as cell } from "@/lib/reports/csv-cell";
 
 const COLUMNS = ["serial", "model", "capture_id", "captured_at_utc", "test_kind", "speed_rpm", "analysis_version", "check", "label", "measured", "unit", "lower", "upper", "status", "basis"] as const;
-
-function cell(value: unknown): string {
-  if (value === null || value === undefined) return "";
-  const text = typeof value === "number" ? String(Number(value.toPrecision(8))) : String(value);
-  // Quote per RFC 4180, and defuse spreadsheet formulas in text cells.
-  const safe = /^[=+\-@\t\r]/.test(text) && typeof value !== "number" ? `'${text}` : text;
-  return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
-}
 
 /** One row per verdict of every current analysis: the machine-readable twin of the PDF record. */
 export function renderUnitCsv(record: UnitRecord): string {

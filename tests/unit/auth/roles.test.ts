@@ -36,8 +36,9 @@ describe("navFor(role)", () => {
     expect(navFor("admin").map((i) => i.href)).toContain("/admin/clients");
     for (const role of ["qa", "operator", "manufacturer"] as const) expect(navFor(role).map((i) => i.href), role).not.toContain("/admin/clients");
   });
-  it("gives a client only the overview and its units", () => {
-    expect(navFor("manufacturer").map((i) => i.href)).toEqual(["/", "/units"]);
+  it("gives a client the overview, its units and its released reports", () => {
+    expect(navFor("manufacturer").map((i) => i.href)).toEqual(["/", "/units", "/portal", "/portal/tokens"]);
+    expect(rolesForPath("/portal")).toEqual(["manufacturer"]);
     expect(isLabRole("manufacturer")).toBe(false);
   });
 });

@@ -1,0 +1,5 @@
+import { apiReportStatus } from "@/lib/dal/client-api";
+import { apiRoute } from "@/lib/dal/route-handler";
+
+export const GET = apiRoute(async (request: Request, { params }: { params: Promise<{ number: string }> }) =>
+  apiReportStatus(request, (await params).number));

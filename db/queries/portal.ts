@@ -1,0 +1,63 @@
+import { and, desc, eq, gte, ilike, inArray, lt, sql, type SQL } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { labClients, organisations, ratings, reports, units } from "@/db/schema";
+
+// Released reports as a client reads them: its own (reports.client_id), from labs it is linked to.
+
+export type PortalFilter = { serial?: string; model?: string; from?: Date; to?: Date; limit?: number };
+
+const columns = {
+  id: reports.id, number: reports.number, revision: reports.revision, status: reports.status, objectKey: reports.objectKey,
+  sha256: reports.sha256, sizeBytes: reports.sizeBytes, disposition: reports.disposition, overall: reports.overall, content: reports.content,
+  releasedAt: reports.releasedAt, withdrawnAt: reports.withdrawnAt, withdrawReason: reports.withdrawReason, serial: units.serial,
+  modelCode: ratings.modelCode, labName: organisations.name,
+};
+
+function clientWhere(clientId: string): SQL {
+  return and(
+    eq(reports.clientId, clientId), eq(units.organisationId, clientId),
+    sql`exists (select 1 from ${labClients} where ${labClients.labId} = ${reports.labId} and ${labClients.clientId} = ${clientId})`,
+  ) as SQL;
+}
+
+const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
+
+function base() {
+  return getDb().select(columns).from(reports)
+    .innerJoin(units, eq(units.id, reports.unitId))
+    .innerJoin(ratings, eq(ratings.id, units.ratingId))
+    .innerJoin(organisations, eq(organisations.id, reports.labId));
+}
+
+export type PortalReportRow = Awaited<ReturnType<typeof listClientReports>>[number];
+
+export async function listClientReports(clientId: string, f: PortalFilter = {}) {
+  const where = [clientWhere(clientId)];
+  if (f.serial) where.push(ilike(units.serial, `%${escapeLike(f.serial)}%`));
+  if (f.model) where.push(ilike(ratings.modelCode, `%${escapeLike(f.model)}%`));
+  if (f.from) where.push(gte(reports.releasedAt, f.from));
+  if (f.to) where.push(lt(reports.releasedAt, f.to));
+  return base().where(and(...where)).orderBy(desc(reports.releasedAt), desc(reports.revision)).limit(f.limit ?? 200);
+}
+
+/** Exactly this serial (the API), every revision, newest first. */
+export async function listClientReportsBySerial(clientId: string, serial: string) {
+  return base().where(and(clientWhere(clientId), eq(units.serial, serial))).orderBy(desc(reports.releasedAt), desc(reports.revision)).limit(200);
+}
+
+export async function getClientReports(clientId: string, ids: readonly string[]) {
+  if (ids.length === 0) return [];
+  return base().where(and(clientWhere(clientId), inArray(reports.id, [...ids])));
+}
+
+/** Every revision of one report number, newest revision first. */
+export async function getClientReportByNumber(clientId: string, number: string) {
+  return base().where(and(clientWhere(clientId), eq(reports.number, number))).orderBy(desc(reports.revision));
+}
+
+/** For the lab's per-unit CSV: the unit's valid released report, if any (lab scope). */
+export async function getValidReportForLabUnit(labId: string, unitId: string) {
+  const rows = await base().where(and(eq(reports.labId, labId), eq(reports.unitId, unitId), eq(reports.status, "valid")))
+    .orderBy(desc(reports.revision)).limit(1);
+  return rows[0];
+}
