@@ -4,9 +4,11 @@ import { insertFirstRevision, insertNextRevision, listUnitReports, withdrawLates
 import type { Report } from "@/db/schema";
 import { HttpError } from "@/lib/auth/guards";
 import { SIGNING_ROLES } from "@/lib/reports/signature-meanings";
+import { notifyReportEvent } from "@/lib/server/mail-report-events";
 import { gatherReportInputs, type Gathered } from "@/lib/server/reports/gather";
 import { renderAndStore } from "@/lib/server/reports/render";
 import type { Actor } from "./actor";
+import { releaseBlockersFromInstruments } from "./capture-instruments";
 import { signWithPassword } from "./signatures";
 
 // Releasing, superseding and withdrawing a unit's test report. Each asks for the signer's password;
@@ -36,6 +38,8 @@ async function releasable(actor: LabActor, unitId: string): Promise<Gathered> {
   if (gathered.missingSteps.length > 0 && disposition !== "accepted-with-concession") {
     throw new HttpError(422, `The test plan is incomplete; no capture of record for: ${gathered.missingSteps.join("; ")}. Test those steps, or accept the unit with a concession first.`);
   }
+  const overdue = await releaseBlockersFromInstruments(actor, unitId);
+  if (overdue.length > 0) throw new HttpError(422, overdue.join(" "));
   return gathered;
 }
 
@@ -48,7 +52,8 @@ export async function releaseReport(actor: Actor, input: z.output<typeof release
   const row = await insertFirstRevision(actor.scope.labId, input.unitId, (n) => renderAndStore(actor.scope.labId, gathered, n, signature, ""));
   if (row === "missing") throw new HttpError(404, "No such unit.");
   if (row === "exists") throw new HttpError(409, "This unit already has a released report: issue a new revision instead.");
-  // Mail goes out from here once the outbox sender is wired: notifyReportEvent(row.id, "released").
+  // The client users are told; a mail failure never undoes the release (notifyReportEvent never throws).
+  await notifyReportEvent(row.id, "released");
   return row;
 }
 
@@ -62,7 +67,8 @@ export async function supersedeReport(actor: Actor, input: z.output<typeof super
   const row = await insertNextRevision(actor.scope.labId, input.unitId, (n) => renderAndStore(actor.scope.labId, gathered, n, signature, input.reason));
   if (row === "missing") throw new HttpError(404, "No such unit.");
   if (row === "none") throw new HttpError(409, "This unit has no released report to replace: release one first.");
-  // Mail goes out from here once the outbox sender is wired: notifyReportEvent(row.id, "superseded").
+  // The client users are told; a mail failure never undoes the release (notifyReportEvent never throws).
+  await notifyReportEvent(row.id, "superseded");
   return row;
 }
 
@@ -76,6 +82,7 @@ export async function withdrawReport(actor: Actor, input: z.output<typeof withdr
   const row = await withdrawLatest(actor.scope.labId, input.unitId, { userId: actor.userId, reason: input.reason });
   if (row === "missing") throw new HttpError(404, "No such unit.");
   if (row === "none") throw new HttpError(409, "The latest revision is not valid: there is nothing to withdraw.");
-  // Mail goes out from here once the outbox sender is wired: notifyReportEvent(row.id, "withdrawn").
+  // The client users are told; a mail failure never undoes the release (notifyReportEvent never throws).
+  await notifyReportEvent(row.id, "withdrawn");
   return row;
 }

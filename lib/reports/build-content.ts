@@ -1,4 +1,5 @@
 import type { AnalysisReport, PlanEvaluation, Rating, ToleranceProfile, VerdictStatus } from "@/lib/analysis";
+import { decisionRuleStatement, expandedUncertaintyOf } from "./uncertainty-content";
 import { describeNameplate } from "@/lib/ratings/describe";
 import { VERDICT_WORDS } from "@/lib/verdicts/words";
 import { reportContentSchema, type ReportCheck, type ReportContent, type ReportStep } from "./content";
@@ -52,7 +53,7 @@ function checksOf(report: AnalysisReport): ReportCheck[] {
     checkId: v.check, label: v.label, order: null,
     value: typeof v.measured === "number" ? v.measured : null,
     unit: v.unit, limit: limitWords(v.lower ?? null, v.upper ?? null, v.unit, v.status, v.reason),
-    lower: v.lower ?? null, upper: v.upper ?? null, verdict: v.status, expandedUncertainty: null, source: v.source,
+    lower: v.lower ?? null, upper: v.upper ?? null, verdict: v.status, expandedUncertainty: expandedUncertaintyOf(report, v.check), source: v.source,
   }));
 }
 
@@ -104,11 +105,9 @@ function methodsOf(input: ContentInput, steps: ReportStep[]): string[] {
 
 function decisionRuleOf(profile: ToleranceProfile | null): string {
   const zone = profile?.marginalZonePercent ?? 10;
-  return (
-    "Simple acceptance (no guard band; the measured value is compared with the tolerance limit). A result inside its band is " +
-    `"Within"; inside the band but within ${fmt(zone, 3)} % of the distance from nominal to the limit it is "Near edge" (marginal); ` +
-    'outside the band it is "Outside". A figure that is missing, not finite or invalidated by a capture-quality warning is "Inconclusive", never a pass.'
-  );
+  const rule = decisionRuleStatement(profile?.decisionRule);
+  const marginal = ` Under simple acceptance a result inside its band but within ${fmt(zone, 3)} % of the distance from nominal to the limit is "Near edge" (marginal).`;
+  return `${rule}${marginal} Outside the band a result is "Outside". A figure that is missing, not finite or invalidated by a capture-quality warning is "Inconclusive", never a pass.`;
 }
 
 function deviationsOf(input: ContentInput, steps: ReportStep[]): string[] {

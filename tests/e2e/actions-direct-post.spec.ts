@@ -35,6 +35,10 @@ const ALLOWED_BY_FILE: Record<string, readonly Role[]> = {
   "app/(app)/stations/profile-actions.ts": ["admin", "operator"],
   "app/(app)/admin/instruments/actions.ts": ["admin"],
   "app/(app)/captures/[id]/instrument-actions.ts": ["admin", "qa", "operator"],
+  "app/(app)/account/prefs-actions.ts": ["admin", "qa", "operator", "kestrum"],
+  "app/(app)/admin/lab/actions.ts": ["admin"],
+  "app/(app)/portal/tokens/actions.ts": ["kestrum"],
+  "app/(app)/units/[id]/release-actions.ts": ["admin", "qa"],
 };
 const ROLES: readonly Role[] = ["admin", "qa", "operator", "kestrum"];
 

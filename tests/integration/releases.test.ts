@@ -91,7 +91,7 @@ describe("releaseReport(actor, input, address)", () => {
       { name: "verdict words", pattern: /Within/ },
       { name: "overall against the plan", pattern: /Overall against the plan Within/ },
       { name: "unit-level results", pattern: /Unit-level results/ },
-      { name: "decision rule", pattern: /Simple acceptance \(no guard band/ },
+      { name: "decision rule", pattern: /Simple acceptance \(ILAC/ },
       { name: "marginal band from the profile", pattern: /within 10 % of the distance from nominal to the limit it is "Near edge"/ },
       { name: "measurement uncertainty", pattern: /Measurement uncertainty: not evaluated/ },
       { name: "instruments with calibration due", pattern: new RegExp(`oscilloscope Corvane DS-4 \\(asset A-${tag}\\) SC${tag} 2027-03-31`) },

@@ -4,11 +4,13 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { requireRole } from "@/lib/auth/guards";
 import { createClientToken, newClientTokenSchema, revokeMyOrganisationToken } from "@/lib/dal/client-tokens";
+import { asForm } from "@/lib/forms/fields";
 
 export type TokenState = { ok: boolean; message: string; token?: string; fieldErrors?: Partial<Record<"label" | "days", string>> };
 
 export async function createTokenAction(_prev: TokenState, form: FormData): Promise<TokenState> {
   await requireRole("manufacturer");
+  form = asForm(form);
   const parsed = newClientTokenSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) {
     const fieldErrors: TokenState["fieldErrors"] = {};
@@ -24,6 +26,7 @@ const revokeSchema = z.object({ tokenId: z.uuid("tokenId: not a token id.") });
 
 export async function revokeTokenAction(form: FormData): Promise<void> {
   await requireRole("manufacturer");
+  form = asForm(form);
   const parsed = revokeSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return;
   await revokeMyOrganisationToken(parsed.data.tokenId);
