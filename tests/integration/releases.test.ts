@@ -92,7 +92,7 @@ describe("releaseReport(actor, input, address)", () => {
       { name: "overall against the plan", pattern: /Overall against the plan Within/ },
       { name: "unit-level results", pattern: /Unit-level results/ },
       { name: "decision rule", pattern: /Simple acceptance \(ILAC/ },
-      { name: "marginal band from the profile", pattern: /within 10 % of the distance from nominal to the limit it is "Near edge"/ },
+      { name: "marginal band from the profile", pattern: /within 10 % of the distance from nominal to the limit is "Near edge"/ },
       { name: "measurement uncertainty", pattern: /Measurement uncertainty: not evaluated/ },
       { name: "instruments with calibration due", pattern: new RegExp(`oscilloscope Corvane DS-4 \\(asset A-${tag}\\) SC${tag} 2027-03-31`) },
       { name: "deviations section", pattern: /Deviations, concessions and confirmations/ },
