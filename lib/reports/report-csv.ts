@@ -1,5 +1,6 @@
 import { csvLine } from "./csv-cell";
 import type { ReportContent } from "./content";
+import { verdictWord } from "@/lib/verdicts/words";
 
 // The CSV of a released report: one row per check of each step of record, read from the stored
 // content (the facts the PDF was drawn from), with the report's number, revision, status and the
@@ -8,7 +9,7 @@ import type { ReportContent } from "./content";
 export const REPORT_CSV_COLUMNS = [
   "report_number", "revision", "report_status", "disposition", "serial", "model", "step", "test_kind", "capture_file", "capture_sha256",
   "captured_at_utc", "speed_rpm", "check", "label", "order", "measured", "unit", "lower", "upper", "limit", "verdict",
-  "expanded_uncertainty_k2", "source",
+  "expanded_uncertainty_k2", "source", "verdict_word",
 ] as const;
 
 export type ReportCsvStatus = "valid" | "superseded" | "withdrawn";
@@ -20,7 +21,7 @@ export function renderReportCsv(content: ReportContent, status: ReportCsvStatus)
       lines.push(csvLine([
         content.number, content.revision, status, content.disposition, content.unit.serial, content.unit.modelCode, step.name, step.testKind,
         step.capture?.fileName, step.capture?.sha256, step.capture?.capturedAt, step.capture?.speedRpm, c.checkId, c.label, c.order, c.value,
-        c.unit, c.lower, c.upper, c.limit, c.verdict, c.expandedUncertainty, c.source,
+        c.unit, c.lower, c.upper, c.limit, c.verdict, c.expandedUncertainty, c.source, verdictWord(c.verdict),
       ]));
     }
   }

@@ -26,7 +26,7 @@ describe("renderUnitCsv(record)", () => {
     const lines = renderUnitCsv(record()).trimEnd().split("\r\n");
     expect(lines).toHaveLength(3);
     expect(lines[0]).toMatch(/^serial,model,capture_id,/);
-    expect(lines[1]).toContain("KG45-260301,KG-45T,c1,2026-11-30T09:00:00.000Z,no-load,1500,t,thd,\"THD, worst line\",2.5,%,,5,pass,line-line");
+    expect(lines[1]).toContain("KG45-260301,KG-45T,c1,2026-11-30T09:00:00.000Z,no-load,1500,t,thd,\"THD, worst line\",2.5,%,,5,pass,line-line,Within");
     expect(lines[2]).toContain(`"'=HYPERLINK(""x""), ""quoted""",'=1+1,`);
   });
 });
