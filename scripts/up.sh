@@ -29,6 +29,8 @@ node_modules/.bin/tsx worker/index.ts >>.data/log/worker.log 2>&1 &
 echo $! >.data/run/worker.pid
 step "demo captures (analysed by the worker in the background)"
 node_modules/.bin/tsx --import ./scripts/support/server-only-hook.mjs scripts/seed-captures.ts
+step "demo release (the quality engineer signs the first report once its unit is analysed)"
+node_modules/.bin/tsx --import ./scripts/support/server-only-hook.mjs scripts/seed-release.ts || echo "The demo report was not released (see above); the app runs without it."
 if $detach; then
   nohup node_modules/.bin/tsx scripts/serve.ts --host 127.0.0.1 --port 3000 >>.data/log/web.log 2>&1 &
   echo $! >.data/run/web.pid

@@ -22,6 +22,8 @@ const TABLE: Record<string, string> = {
   "/captures": "AOQC",
   "/captures/0b6c0c3e-3a39-4a43-9f5b-6a1a3b1e2f10": "AOQC",
   "/reports": "AOQC",
+  "/portal": "C",
+  "/portal/tokens": "C",
 };
 const LETTER = { admin: "A", operator: "O", qa: "Q", manufacturer: "C" } as const;
 

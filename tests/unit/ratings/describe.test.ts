@@ -49,10 +49,11 @@ describe("planStepInputSchema", () => {
 });
 
 describe("buildOpenApiDocument(url)", () => {
-  it("documents the ratings routes with both auth schemes", () => {
+  it("documents the ratings routes with both lab auth schemes, and the client token scheme of the reports routes", () => {
     const doc = buildOpenApiDocument("http://x");
     for (const path of ["/api/v1/ratings", "/api/v1/ratings/{id}", "/api/v1/ratings/{id}/retire", "/api/v1/ratings/{id}/profile", "/api/v1/ratings/{id}/plan"]) expect(doc.paths, path).toHaveProperty([path]);
-    expect(Object.keys(doc.components.securitySchemes)).toEqual(["stationKey", "session"]);
+    expect(Object.keys(doc.components.securitySchemes)).toEqual(["stationKey", "session", "clientToken"]);
+    for (const path of ["/api/v1/reports", "/api/v1/reports/{number}/pdf"]) expect(doc.paths, path).toHaveProperty([path]);
     expect(doc.components.schemas).toHaveProperty("RatingCreate");
   });
 });
