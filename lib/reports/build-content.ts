@@ -1,4 +1,5 @@
 import type { AnalysisReport, PlanEvaluation, Rating, ToleranceProfile, VerdictStatus } from "@/lib/analysis";
+import { DISPOSITION_WORDS } from "@/lib/units/disposition-rules";
 import { decisionRuleStatement, expandedUncertaintyOf } from "./uncertainty-content";
 import { describeNameplate } from "@/lib/ratings/describe";
 import { VERDICT_WORDS } from "@/lib/verdicts/words";
@@ -138,7 +139,7 @@ export function buildReportContent(input: ContentInput): ReportContent {
       serial: input.unit.serial, modelCode: input.rating.modelCode, ratingName: input.rating.title,
       nameplate: input.rating.nameplate ? describeNameplate(input.rating.nameplate) : [],
     },
-    disposition: input.unit.disposition,
+    disposition: DISPOSITION_WORDS[input.unit.disposition as keyof typeof DISPOSITION_WORDS] ?? input.unit.disposition,
     overall: overallOf(input.plan),
     steps,
     unitResults: unitResultsOf(input.plan),

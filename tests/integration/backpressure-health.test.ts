@@ -2,7 +2,7 @@ import { inArray } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { getDb } from "@/db/client";
 import { countAnalysisBacklog } from "@/db/queries/captures";
-import { captures } from "@/db/schema";
+import { captureInstruments, captures } from "@/db/schema";
 import { GET as live } from "@/app/api/health/live/route";
 import { POST as registerRoute } from "@/app/api/v1/captures/route";
 import { GET as ready } from "@/app/api/health/ready/route";
@@ -25,7 +25,10 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   // Queued captures of this file only; no worker ran, so none has an analysis.
-  if (made.length > 0) await getDb().delete(captures).where(inArray(captures.id, made));
+  if (made.length > 0) {
+    await getDb().delete(captureInstruments).where(inArray(captureInstruments.captureId, made));
+    await getDb().delete(captures).where(inArray(captures.id, made));
+  }
   await closeConnections();
 });
 

@@ -87,7 +87,7 @@ describe("releaseReport(actor, input, address)", () => {
       { name: "plan step 2 by name", pattern: /Step 2: Open circuit, second run/ },
       { name: "capture of record", pattern: /Capture of record run-\d+\.csv · sha256 [0-9a-f]{64}/ },
       { name: "results table header", pattern: /Check Measured Unit Limit Verdict/ },
-      { name: "result with unit and limit", pattern: /Frequency 50 Hz [\d.]+ – [\d.]+ Hz Within/ },
+      { name: "result with unit and limit", pattern: /Frequency 50(\.\d+)? Hz [\d.]+ – [\d.]+ Hz Within/ },
       { name: "verdict words", pattern: /Within/ },
       { name: "overall against the plan", pattern: /Overall against the plan Within/ },
       { name: "unit-level results", pattern: /Unit-level results/ },

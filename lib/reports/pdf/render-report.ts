@@ -1,4 +1,5 @@
 import type { ReportContent } from "@/lib/reports/content";
+import { formatFigureParts, quantityFor } from "@/lib/verdicts/format-figure";
 import { VERDICT_WORDS } from "@/lib/verdicts/words";
 import { CONTENT_WIDTH, INK, MUTED, PAGE, createReportDocument, heading, paragraph, writeFrame } from "./document";
 import { drawStepPlots, type PlotData } from "./plots";
@@ -78,9 +79,12 @@ function stepSection(doc: PDFKit.PDFDocument, content: ReportContent, index: num
     { label: "Conditions", value: `Speed ${c.speedRpm === null ? "not given" : `${num(c.speedRpm)} rpm`} · magnet temperature ${c.magnetTemperatureC === null ? "not given" : `${num(c.magnetTemperatureC)} °C`}` },
     { label: "Result of the capture", value: `${c.overall ? VERDICT_WORDS[c.overall] : "—"} · analysis engine ${c.analysisVersion}` },
   ]);
-  drawTable(doc, CHECK_COLUMNS, step.checks.map((k) => [
-    k.label, num(k.value), k.unit, k.limit, VERDICT_WORDS[k.verdict], k.expandedUncertainty === null ? "not evaluated" : `± ${num(k.expandedUncertainty)} ${k.unit}`,
-  ]));
+  drawTable(doc, CHECK_COLUMNS, step.checks.map((k) => {
+    // Rounded as the uncertainty allows (GUM 7.2.6), else to the quantity's resolution, as on the pages.
+    const parts = formatFigureParts(k.value, { quantity: quantityFor(k.unit, k.checkId), uncertainty: k.expandedUncertainty });
+    const u = parts?.uncertainty ?? null;
+    return [k.label, parts?.value ?? "—", k.unit, k.limit, VERDICT_WORDS[k.verdict], u === null ? (k.expandedUncertainty === null ? "not evaluated" : `± ${num(k.expandedUncertainty)} ${k.unit}`) : `± ${u} ${k.unit}`];
+  }));
   for (const note of step.notes) paragraph(doc, `Capture quality: ${note}`, { size: 8, color: MUTED });
   drawStepPlots(doc, options.plots.get(step.stepId) ?? { preview: null, spectrum: null });
 }
