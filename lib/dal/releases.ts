@@ -68,7 +68,8 @@ export async function supersedeReport(actor: Actor, input: z.output<typeof super
   if (row === "missing") throw new HttpError(404, "No such unit.");
   if (row === "none") throw new HttpError(409, "This unit has no released report to replace: release one first.");
   // The client users are told; a mail failure never undoes the release (notifyReportEvent never throws).
-  await notifyReportEvent(row.id, "superseded");
+  // The mail names the revision that is no longer valid (the new one is in its link).
+  await notifyReportEvent(latest.id, "superseded");
   return row;
 }
 

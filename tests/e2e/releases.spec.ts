@@ -9,7 +9,9 @@ import { renderDemoCsv } from "@/scripts/demo/waveforms";
 import { ACCOUNTS, DEMO_PASSWORD, signIn } from "./support";
 
 // A quality engineer releases a complete unit's report with a password, downloads it, checks the file
-// on the public verification page (valid), issues a new revision, and the page then says superseded.
+// on the public verification page (valid); the client finds the mail, signs in, downloads the same
+// bytes from the portal and reads "valid"; the quality engineer issues a new revision, and the page
+// then says superseded.
 
 const LL3 = { "V_AB (V)": "vab", "V_BC (V)": "vbc", "V_CA (V)": "vca" };
 
@@ -58,7 +60,7 @@ test.afterAll(async () => {
   await closeDb();
 });
 
-test("a quality engineer releases a complete unit's report, the downloaded file verifies as valid, and after a new revision as superseded", async ({ page, browser, baseURL }) => {
+test("a quality engineer releases a complete unit's report; the client is mailed, downloads it from the portal and it verifies as valid; after a new revision it reads superseded", async ({ page, browser, baseURL }) => {
   test.setTimeout(240_000);
   const serial = `RLE-${randomUUID().slice(0, 6).toUpperCase()}`;
   const unitId = await completeUnit(baseURL ?? "", serial);
@@ -94,6 +96,33 @@ test("a quality engineer releases a complete unit's report, the downloaded file 
   await expect(visitor.getByTestId("revision-1")).toContainText(createHash("sha256").update(readFileSync(firstFile)).digest("hex"));
   await dropFile(visitor, firstFile);
   await expect(visitor.getByTestId("file-outcome")).toContainText(`This is a released file of report ${number}: revision 1, status valid.`);
+
+  // The client is mailed through the outbox and the worker; the lab manager's outbox shows the mail
+  // the mail catcher received, with the portal link (clients do not open the outbox themselves).
+  const lab = await (await browser.newContext()).newPage();
+  await signIn(lab, "admin");
+  const mail = lab.locator("details", { hasText: `Test report ${number} revision 1` }).first();
+  await expect(async () => {
+    await lab.goto("/admin/mailbox");
+    await expect(mail).toBeVisible({ timeout: 1000 });
+  }).toPass({ timeout: 90_000 });
+  await mail.locator("summary").click();
+  const link = (await mail.locator("pre").innerText()).match(/https?:\/\/\S+\/portal\?serial=\S+/)?.[0];
+  expect(link).toBeTruthy();
+  // The client signs in, follows the link, downloads the released file and checks it on the public page.
+  const client = await (await browser.newContext()).newPage();
+  await signIn(client, "kestrum");
+  await client.goto(new URL(link!).pathname + new URL(link!).search);
+  const clientRow = client.getByTestId(`report-${number}-rev1`);
+  await expect(clientRow).toContainText("Valid");
+  const clientDownload = client.waitForEvent("download");
+  await clientRow.getByRole("link", { name: /PDF/ }).click();
+  const clientFile = await (await clientDownload).path();
+  const hashOf = (file: string) => createHash("sha256").update(readFileSync(file)).digest("hex");
+  expect(hashOf(clientFile)).toBe(hashOf(firstFile));
+  await client.goto(`/verify/${number}`);
+  await dropFile(client, clientFile);
+  await expect(client.getByTestId("file-outcome")).toContainText(`This is a released file of report ${number}: revision 1, status valid.`);
 
   const supersede = page.getByRole("form", { name: "Issue a new revision" });
   await supersede.getByLabel("Why this revision replaces the earlier one").fill("Client address corrected on the first page");
