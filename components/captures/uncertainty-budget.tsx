@@ -12,6 +12,9 @@ export function UncertaintyNote({ report, check }: { report: AnalysisReport; che
   return <span className="block text-xs text-ink-600">{u.status === "evaluated" ? `± ${fmtWithUnit(u.expandedUncertainty, u.unit, 2)} (k = 2)` : "U not evaluated"}</span>;
 }
 
+/** Budget entries to two significant digits: enough to see each share, never more digits than U supports. */
+const sig2 = (value: number, unit: string) => (Number.isFinite(value) ? `${Number(value.toPrecision(2))}${unit ? ` ${unit}` : ""}` : "—");
+
 function Budget({ u }: { u: Extract<FigureUncertainty, { status: "evaluated" }> }) {
   return (
     <table className="mt-2 min-w-full text-xs" aria-label={`Uncertainty budget: ${FIGURE_LABELS[u.check]}`}>
@@ -22,12 +25,12 @@ function Budget({ u }: { u: Extract<FigureUncertainty, { status: "evaluated" }> 
       <tbody className="tabular-nums">
         {u.contributions.map((c) => (
           <tr key={c.name} className="border-t border-ink-100">
-            <td className="py-1 pr-3">{c.name}</td><td className="py-1 pr-3">{fmtWithUnit(c.value, c.unit)}</td><td className="py-1 pr-3">{c.distribution}</td>
+            <td className="py-1 pr-3">{c.name}</td><td className="py-1 pr-3">{sig2(c.value, c.unit)}</td><td className="py-1 pr-3">{c.distribution}</td>
             <td className="py-1 pr-3">{fmt(c.divisor)}</td><td className="py-1 pr-3">{fmt(c.sensitivity)}</td><td className="py-1 pr-3">{fmt(c.standardUncertainty)}</td>
             <td className="py-1 pr-3">{(100 * c.share).toFixed(1)} %</td>
           </tr>
         ))}
-        <tr className="border-t border-ink-200 font-semibold"><td className="py-1 pr-3" colSpan={5}>Combined u_c; expanded U = {u.coverageFactor}·u_c</td><td className="py-1 pr-3">{fmt(u.standardUncertainty)}</td><td className="py-1 pr-3">U = {fmtWithUnit(u.expandedUncertainty, u.unit)}</td></tr>
+        <tr className="border-t border-ink-200 font-semibold"><td className="py-1 pr-3" colSpan={5}>Combined u_c; expanded U = {u.coverageFactor}·u_c</td><td className="py-1 pr-3">{fmt(u.standardUncertainty)}</td><td className="py-1 pr-3">U = {sig2(u.expandedUncertainty, u.unit)}</td></tr>
       </tbody>
     </table>
   );
