@@ -58,7 +58,7 @@ describe("renderReportPdf(content, options)", () => {
     // pdftotext -layout drops the narrow spaces of "≤ 5 %".
     expect(texts.join(" ")).toMatch(/≤ ?5 ?%/);
     expect(texts.join(" ")).toContain("21.5 °C");
-    expect(texts.join(" ")).toContain("± 0.02 Ω");
+    expect(texts.join(" ")).toContain("± 0.020 Ω");
   }, 30_000);
 
   it("renderReportPdf marks a draft DRAFT on every page and leaves out the verification address", async () => {
