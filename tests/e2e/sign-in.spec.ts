@@ -3,10 +3,10 @@ import { ACCOUNTS, signIn, signOut } from "./support";
 
 test("each role signs in and sees its own navigation", async ({ page }) => {
   const expected = {
-    admin: ["Overview", "Units", "Captures", "New capture", "Review queue", "Trends", "Ratings", "Benches", "Clients", "People", "Outbox"],
+    admin: ["Overview", "Units", "Captures", "New capture", "Review queue", "Trends", "Ratings", "Benches", "Instruments", "Clients", "People", "Outbox", "Lab settings"],
     operator: ["Overview", "New capture", "Captures", "Units", "Ratings", "Benches"],
-    qa: ["Overview", "Review queue", "Units", "Captures", "Trends", "Ratings"],
-    kestrum: ["Overview", "Units"],
+    qa: ["Overview", "Review queue", "Units", "Captures", "Trends", "Ratings", "Instruments"],
+    kestrum: ["Overview", "Units", "Released reports", "API tokens"],
   } as const;
   for (const [who, links] of Object.entries(expected) as [keyof typeof expected, readonly string[]][]) {
     await signIn(page, who);
