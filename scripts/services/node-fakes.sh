@@ -129,9 +129,9 @@ node_fake_stop() {
   rm -f "$pidfile" "$RUN_DIR/$name.port"
 }
 
-# s3_secret: the store's secret access key (random, created on first use; the access key id is S3RVER).
-s3_secret() {
-  local file="$DATA_DIR/s3-secret" tmp
+# stored_secret NAME: a random secret kept in .data/NAME (created on first use, readable by the owner only).
+stored_secret() {
+  local file="$DATA_DIR/$1" tmp
   mkdir -p "$DATA_DIR"
   if [[ ! -s "$file" ]]; then
     tmp="$file.tmp.$$"
@@ -141,6 +141,9 @@ s3_secret() {
   fi
   tr -d '\n' <"$file"
 }
+
+# s3_secret: the store's secret access key (the access key id is S3RVER).
+s3_secret() { stored_secret s3-secret; }
 
 # Origins the store answers CORS for: the app (dev and demo on 3000, the tests on EMFOLIO_E2E_PORT),
 # or EMFOLIO_APP_ORIGINS (space-separated) when set.
@@ -170,18 +173,8 @@ s3_status_detail() {
     "$(IFS=,; printf '%s' "${S3_BUCKETS[*]}")"
 }
 
-# smtp_secret: the SMTP fake's password for user emfolio (random, created on first use).
-smtp_secret() {
-  local file="$DATA_DIR/smtp-secret" tmp
-  mkdir -p "$DATA_DIR"
-  if [[ ! -s "$file" ]]; then
-    tmp="$file.tmp.$$"
-    (umask 077 && head -c 24 /dev/urandom | od -An -tx1 | tr -d ' \n' >"$tmp")
-    mv -n "$tmp" "$file"
-    rm -f "$tmp"
-  fi
-  tr -d '\n' <"$file"
-}
+# smtp_secret: the SMTP fake's password for user emfolio.
+smtp_secret() { stored_secret smtp-secret; }
 
 smtp_start() {
   mkdir -p "$MAIL_DIR"
