@@ -6,8 +6,3 @@
 export function asForm(form: unknown): FormData {
   return form instanceof FormData ? form : new FormData();
 }
-
-/** The fields of a server action's form argument (none when the caller sent something else). */
-export function formFields(form: unknown): Record<string, FormDataEntryValue> {
-  return Object.fromEntries(asForm(form));
-}

@@ -1,7 +1,8 @@
 import { expect, test, type Page } from "@playwright/test";
 import { renderDemoCsv } from "../../scripts/demo/waveforms";
 import { makeThreePhaseCsv } from "../fixtures/pipeline/make-capture";
-import { selectOptionContaining, signIn, signOut } from "./support";
+import { addClient, addPlanStep, createRating, setVoltageBand } from "./lab-setup";
+import { fillNewUnit, signIn, signOut } from "./support";
 
 // Judgement a lab can sign, as its people use it in the browser. Needs the test server and the worker
 // that scripts/test.sh starts. Every test makes its own serials (and its own client and rating where it
@@ -12,11 +13,8 @@ const run = Date.now() % 1_000_000_000;
 /** Uploads one file on /upload and waits for its analysis; returns the capture page's address. */
 async function uploadOne(page: Page, o: { serial: string; newRating?: string; testKind?: string; speed: string; name: string; csv: string }) {
   await page.goto("/upload");
-  await page.getByLabel("Unit serial").fill(o.serial);
-  if (o.newRating) {
-    await selectOptionContaining(page, "Rating of the new unit", o.newRating);
-    await page.getByLabel(`Register ${o.serial} as a new unit`).check();
-  }
+  if (o.newRating) await fillNewUnit(page, o.serial, o.newRating);
+  else await page.getByLabel("Unit serial").fill(o.serial);
   if (o.testKind) await page.getByLabel("Test").selectOption(o.testKind);
   await page.getByLabel("Shaft speed (rpm)").fill(o.speed);
   await page.getByLabel("Capture files").setInputFiles([{ name: o.name, mimeType: "text/csv", buffer: Buffer.from(o.csv) }]);
@@ -56,35 +54,11 @@ test("a lab manager tightens the voltage band and re-judges from the rating page
   const clientName = `Orlent Machines ${tag}`;
   const modelCode = `OR-${tag}`.toUpperCase();
   await signIn(page, "admin");
-  await page.goto("/admin/clients");
-  const newClient = page.getByRole("form", { name: "New client" });
-  await newClient.getByLabel("Client name").fill(clientName);
-  await newClient.getByLabel("Their reference code").fill(`ORL-${tag}`);
-  await newClient.getByLabel("Contact e-mail").fill("bench-office@orlent.example");
-  await newClient.getByRole("button", { name: "Add client" }).click();
-  await expect(page.getByText(`${clientName} added as a client of your lab.`)).toBeVisible();
-
+  await addClient(page, { name: clientName, reference: `ORL-${tag}`, email: "bench-office@orlent.example" });
   await page.goto("/ratings/new");
-  const form = page.getByRole("form", { name: "New rating" });
-  await form.getByLabel("Client", { exact: true }).selectOption({ label: clientName });
-  await form.getByLabel("Model code").fill(modelCode);
-  await form.getByLabel("Title").fill("45 kVA re-judge alternator");
-  await form.getByLabel("Poles").fill("4");
-  await form.getByLabel("Rated speed, rpm").fill("1500");
-  await form.getByLabel("Rated frequency, Hz").fill("50");
-  await form.getByLabel("Rated voltage, V").fill("400");
-  await form.getByLabel("Rated apparent power, kVA").fill("45");
-  await form.getByLabel("Start the tolerance profile from").selectOption("iec-60034-1");
-  await form.getByRole("button", { name: "Create rating" }).click();
-  await expect(page.getByText("Rating created with profile version 1.")).toBeVisible();
+  await createRating(page, { clientName, modelCode, title: "45 kVA re-judge alternator" });
   const ratingPage = page.url();
-  const add = page.getByRole("form", { name: "New plan step" });
-  await add.getByLabel("Step name").fill("Open circuit at rated speed");
-  await add.getByLabel("Test kind").selectOption("no-load");
-  await add.getByLabel("Speed, rpm").fill("1500");
-  await add.getByLabel("± %").fill("2");
-  await add.getByRole("button", { name: "Add step" }).click();
-  await expect(page.getByRole("listitem", { name: /: Open circuit at rated speed$/ })).toBeVisible();
+  await addPlanStep(page, { name: "Open circuit at rated speed", kind: "no-load", speed: "1500" });
 
   // 3 % high: within IEC 60034-1's ±5 % (clause 7.3, zone A), outside the ±2 % the client then asks for.
   const capture = await uploadOne(page, {
@@ -94,13 +68,7 @@ test("a lab manager tightens the voltage band and re-judges from the rating page
   await expect(page.getByTestId("overall")).toContainText("Within");
 
   await page.goto(ratingPage);
-  await page.getByText("Edit the profile (saves a new version)").click();
-  const voltage = page.getByRole("group", { name: "Voltage", exact: true });
-  await voltage.getByLabel("Lower limit, % of nominal").fill("-2");
-  await voltage.getByLabel("Upper limit, % of nominal").fill("2");
-  await page.getByLabel("Why the profile changes").fill(`Client ${tag} asks for ±2 %`);
-  await page.getByRole("button", { name: "Save as a new version" }).click();
-  await expect(page.getByText("New profile version saved.")).toBeVisible();
+  await setVoltageBand(page, "-2", "2", `Client ${tag} asks for ±2 %`);
   await page.getByRole("button", { name: /^Re-judge 1 capture/ }).click();
   await expect(page.getByText(/1 capture\(s\) re-judged/)).toBeVisible({ timeout: 60_000 });
 

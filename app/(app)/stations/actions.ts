@@ -4,7 +4,6 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { HttpError } from "@/lib/auth/guards";
 import { requireRoleActor } from "@/lib/dal/actor";
-import { formFields } from "@/lib/forms/fields";
 import { createStation, createStationKey, revokeKey } from "@/lib/dal/stations";
 import { asForm } from "@/lib/forms/fields";
 
@@ -17,7 +16,7 @@ export type KeyState = { ok: boolean; message: string; token?: string };
 export async function createKeyAction(_prev: KeyState, form: FormData): Promise<KeyState> {
   form = asForm(form);
   await requireRoleActor("admin");
-  const parsed = newKeySchema.safeParse(formFields(form));
+  const parsed = newKeySchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return { ok: false, message: parsed.error.issues[0]?.message ?? "Check the form." };
   let created;
   try {
@@ -32,7 +31,7 @@ export async function createKeyAction(_prev: KeyState, form: FormData): Promise<
 export async function revokeKeyAction(form: FormData): Promise<void> {
   form = asForm(form);
   await requireRoleActor("admin");
-  const parsed = revokeSchema.safeParse(formFields(form));
+  const parsed = revokeSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return;
   await revokeKey(parsed.data.keyId);
   revalidatePath("/stations");
@@ -43,7 +42,7 @@ export type StationState = { ok: boolean; message: string };
 export async function createStationAction(_prev: StationState, form: FormData): Promise<StationState> {
   form = asForm(form);
   await requireRoleActor("admin");
-  const parsed = newStationSchema.safeParse(formFields(form));
+  const parsed = newStationSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) return { ok: false, message: parsed.error.issues[0]?.message ?? "Check the form." };
   try {
     await createStation(parsed.data);
