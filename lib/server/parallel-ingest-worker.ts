@@ -6,9 +6,12 @@
 import { closeSync, openSync, readSync } from "node:fs";
 import { parentPort } from "node:worker_threads";
 import { BodyRangeFallback, createBodyRangeParser, type BodyRangeLayout } from "../analysis/body-range";
+import { waitForRanges, type ByteAvailability } from "./capture-bytes";
 
 export interface RangeJob {
   path: string;
+  /** Present while a download still fills `path`: each read waits for its bytes. */
+  availability?: ByteAvailability;
   start: number;
   end: number;
   /** Chunk boundaries of the single pass: multiples of this from the file's start. */
@@ -34,6 +37,7 @@ function runJob(job: RangeJob): RangeReply {
     while (position < job.end) {
       const chunkEnd = Math.min(job.end, (Math.floor(position / job.chunkBytes) + 1) * job.chunkBytes);
       const wanted = chunkEnd - position;
+      if (job.availability && !waitForRanges(job.availability, position, chunkEnd)) return { kind: "fallback", reason: "download failed" };
       let got = 0;
       while (got < wanted) {
         const bytesRead = readSync(fd, buffer, got, wanted - got, position + got);

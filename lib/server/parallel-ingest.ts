@@ -6,7 +6,6 @@
  * (a rejection, an empty cell, a time stamp that does not increase...) this returns null and the
  * caller reads the file on the single pass, which then gives the exact result or rejection.
  */
-import { open, type FileHandle } from "node:fs/promises";
 import { createRequire } from "node:module";
 import { fileURLToPath } from "node:url";
 import { Worker } from "node:worker_threads";
@@ -22,6 +21,7 @@ import {
   type ParsedCapture,
   type ParseOptions,
 } from "@/lib/analysis";
+import type { CaptureBytes } from "./capture-bytes";
 import type { RangeJob, RangeReply } from "./parallel-ingest-worker";
 
 /** Files at least this large go to two threads by default. */
@@ -112,27 +112,17 @@ function trace(message: string): void {
   if (ingestTraceEnabled()) console.error(`[ingest ${performance.now().toFixed(0)} ms] ${message}`);
 }
 
-async function readAt(handle: FileHandle, buffer: Uint8Array, length: number, position: number): Promise<number> {
-  let got = 0;
-  while (got < length) {
-    const { bytesRead } = await handle.read(buffer, got, length - got, position + got);
-    if (bytesRead === 0) break;
-    got += bytesRead;
-  }
-  return got;
-}
-
 const isDigit = (byte: number | undefined): boolean => byte !== undefined && byte >= 48 && byte <= 57;
 
 /**
  * A line start at or after `target` whose previous line holds a digit: that line is either a row
  * (so the first range's last row number is the line count before the split) or a rejection.
  */
-async function findSplit(handle: FileHandle, target: number, size: number): Promise<number | null> {
+async function findSplit(bytes: CaptureBytes, target: number, size: number): Promise<number | null> {
   const before = 4096;
   const buffer = new Uint8Array(before + PROBE_BYTES);
   const from = Math.max(0, target - before);
-  const got = await readAt(handle, buffer, buffer.length, from);
+  const got = await bytes.read(buffer, buffer.length, from);
   const window = buffer.subarray(0, got);
   for (let nl = window.indexOf(10, target - from); nl >= 0; nl = window.indexOf(10, nl + 1)) {
     const previous = window.lastIndexOf(10, nl - 1);
@@ -146,14 +136,14 @@ async function findSplit(handle: FileHandle, target: number, size: number): Prom
 }
 
 /** Newlines per byte in [from, to), from a few evenly spaced probes. */
-async function lineDensity(handle: FileHandle, from: number, to: number): Promise<number> {
+async function lineDensity(source: CaptureBytes, from: number, to: number): Promise<number> {
   const buffer = new Uint8Array(PROBE_BYTES);
   let lines = 0;
   let bytes = 0;
   const span = to - from;
   for (let probe = 0; probe < DENSITY_PROBES; probe++) {
     const at = from + Math.floor((span * probe) / DENSITY_PROBES);
-    const got = await readAt(handle, buffer, Math.min(PROBE_BYTES, to - at), at);
+    const got = await source.read(buffer, Math.min(PROBE_BYTES, to - at), at);
     for (let i = buffer.indexOf(10); i >= 0 && i < got; i = buffer.indexOf(10, i + 1)) lines++;
     bytes += got;
   }
@@ -161,12 +151,12 @@ async function lineDensity(handle: FileHandle, from: number, to: number): Promis
 }
 
 /**
- * Reads `path` (of `size` bytes) on two threads; null when the single pass must read it instead.
+ * Reads a capture's bytes on two threads; null when the single pass must read them instead.
  * Rejections the join itself finds (irregular time stamps) are thrown as the single pass would.
+ * The caller opens and closes `bytes`.
  */
-export async function readCaptureFileParallel(
-  path: string,
-  size: number,
+export async function readCaptureBytesParallel(
+  bytes: CaptureBytes,
   options: ParseOptions,
   ingest: ParallelIngestOptions = {},
 ): Promise<ParsedCapture | null> {
@@ -174,16 +164,16 @@ export async function readCaptureFileParallel(
     ingest.onPath?.({ path: "single", reason });
     return null;
   };
+  const { size } = bytes;
   if (options.engine === "reference") return giveWay("reference engine");
   if (size <= 2 * CHUNK_BYTES) return giveWay("small file");
   if (size > (options.maxBytes ?? 2 * 1024 ** 3)) return giveWay("oversize");
   const worker = startRangeWorker();
   trace("start");
   void worker.whenReady.then((ok) => trace(`worker ready: ${ok}`));
-  const handle = await open(path, "r");
   try {
     const head = new Uint8Array(CHUNK_BYTES);
-    if ((await readAt(handle, head, CHUNK_BYTES, 0)) !== CHUNK_BYTES) return giveWay("short head");
+    if ((await bytes.read(head, CHUNK_BYTES, 0)) !== CHUNK_BYTES) return giveWay("short head");
     const prepared = prepareBodyLayout(head, options);
     const { range: layout } = prepared;
     const estimatedRows = (size - prepared.bodyOffset) / prepared.bytesPerRow;
@@ -203,18 +193,18 @@ export async function readCaptureFileParallel(
     // Two buffers, as on the single pass: the next read is in flight while a chunk is parsed.
     let filling = new Uint8Array(CHUNK_BYTES);
     let spare = new Uint8Array(CHUNK_BYTES);
-    let pending = readAt(handle, filling, Math.min(CHUNK_BYTES, size - position), position);
+    let pending = bytes.read(filling, Math.min(CHUNK_BYTES, size - position), position);
     while (position < end) {
       if (!second && worker.ready && position < size * LATEST_SPLIT) {
-        const split = await findSplit(handle, position + Math.floor((size - position) / 2), size);
+        const split = await findSplit(bytes, position + Math.floor((size - position) / 2), size);
         if (split !== null) {
-          const density = await lineDensity(handle, position, split);
+          const density = await lineDensity(bytes, position, split);
           base = first.rows + Math.ceil((split - position) * density * 1.03) + 1024;
           if (base < capacity) {
             first.setLimit(base);
             end = split;
             trace(`split at byte ${split} after reading ${position}`);
-            second = worker.run({ path, start: split, end: size, chunkBytes: CHUNK_BYTES, layout, buffers, base, limit: capacity - base });
+            second = worker.run({ path: bytes.path, availability: bytes.availability, start: split, end: size, chunkBytes: CHUNK_BYTES, layout, buffers, base, limit: capacity - base });
           }
         }
       }
@@ -224,7 +214,7 @@ export async function readCaptureFileParallel(
       const ready = filling;
       [filling, spare] = [spare, ready];
       const next = position + usable;
-      if (next < end) pending = readAt(handle, filling, Math.min(CHUNK_BYTES, end - next), next);
+      if (next < end) pending = bytes.read(filling, Math.min(CHUNK_BYTES, end - next), next);
       first.push(ready.subarray(0, usable));
       position = next;
     }
@@ -259,6 +249,5 @@ export async function readCaptureFileParallel(
     throw error;
   } finally {
     worker.stop();
-    await handle.close();
   }
 }

@@ -141,6 +141,16 @@ export async function openObjectStream(key: string, etag?: string): Promise<Read
   return out.Body as Readable;
 }
 
+/** Bytes [start, end] (inclusive) of an object, for the worker's parallel ranged reads; `etag` as above. */
+export async function openObjectRange(key: string, start: number, end: number, etag?: string, signal?: AbortSignal): Promise<AsyncIterable<Uint8Array>> {
+  const out = await getS3().send(
+    new GetObjectCommand({ Bucket: getEnv().S3_BUCKET, Key: key, IfMatch: etag || undefined, Range: `bytes=${start}-${end}` }),
+    signal ? { abortSignal: signal } : {},
+  );
+  if (!out.Body) throw new Error(`The object store returned no body for ${key}`);
+  return out.Body as Readable;
+}
+
 /**
  * A download link for the object only while it is the one verified at completion: its ETag must
  * equal the one recorded then (a later write to the key, however it got there, is detected and not

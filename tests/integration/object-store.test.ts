@@ -134,3 +134,53 @@ describe("the local store's access rules", () => {
     expect(own.headers.get("access-control-expose-headers")).toMatch(/ETag/);
   });
 });
+
+describe("object reads from the local store (served by the gate from the store's files)", () => {
+  const key = `tests/${run}/read-back.csv`;
+  const body = Buffer.from(Array.from({ length: 5000 }, (_, i) => `${i},${(i * 0.37).toFixed(3)}`).join("\n") + "\n");
+  const get = (input: Omit<ConstructorParameters<typeof GetObjectCommand>[0], "Bucket">) =>
+    getS3().send(new GetObjectCommand({ Bucket: getEnv().S3_BUCKET, ...input }));
+
+  beforeAll(async () => {
+    await getS3().send(new PutObjectCommand({ Bucket: getEnv().S3_BUCKET, Key: key, Body: body }));
+  });
+
+  it("a whole GET and ranged GETs (start-end, open end, suffix) answer exactly those bytes", async () => {
+    const whole = Buffer.from(await (await get({ Key: key })).Body!.transformToByteArray());
+    expect(whole.equals(body)).toBe(true);
+    for (const [range, expected] of [
+      ["bytes=0-9", body.subarray(0, 10)],
+      ["bytes=1000-1999", body.subarray(1000, 2000)],
+      [`bytes=${body.length - 7}-`, body.subarray(body.length - 7)],
+      ["bytes=-5", body.subarray(body.length - 5)],
+      [`bytes=${body.length - 3}-${body.length + 100}`, body.subarray(body.length - 3)],
+    ] as const) {
+      const out = await get({ Key: key, Range: range });
+      expect(Buffer.from(await out.Body!.transformToByteArray()).equals(expected), range).toBe(true);
+      expect(out.ContentRange, range).toMatch(new RegExp(`/${body.length}$`));
+    }
+  });
+
+  it("If-Match with the stored ETag reads, with another ETag answers 412; a range past the end answers 416", async () => {
+    const stored = await headObject(key);
+    expect(stored?.etag).toBe(`"${createHash("md5").update(body).digest("hex")}"`);
+    await expect(get({ Key: key, IfMatch: stored!.etag, Range: "bytes=0-3" })).resolves.toMatchObject({ ContentLength: 4 });
+    await expect(get({ Key: key, IfMatch: '"0123456789abcdef0123456789abcdef"' })).rejects.toMatchObject({ $metadata: { httpStatusCode: 412 } });
+    await expect(get({ Key: key, Range: `bytes=${body.length}-` })).rejects.toMatchObject({ $metadata: { httpStatusCode: 416 } });
+  });
+
+  it("a missing key still answers NoSuchKey, and a presigned GET with response overrides names the file", async () => {
+    await expect(get({ Key: `tests/${run}/absent.csv` })).rejects.toMatchObject({ name: "NoSuchKey" });
+    const { getSignedUrl } = await import("@aws-sdk/s3-request-presigner");
+    const url = await getSignedUrl(getS3(), new GetObjectCommand({
+      Bucket: getEnv().S3_BUCKET, Key: key, ResponseContentDisposition: 'attachment; filename="a.csv"', ResponseContentType: "text/csv",
+    }), { expiresIn: 60 });
+    const res = await fetch(url);
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-disposition")).toBe('attachment; filename="a.csv"');
+    expect(res.headers.get("content-type")).toBe("text/csv");
+    expect(Buffer.from(await res.arrayBuffer()).equals(body)).toBe(true);
+    const tampered = await fetch(url.replace("response-content-type=text%2Fcsv", "response-content-type=text%2Fhtml"));
+    expect(tampered.status).toBe(403);
+  });
+});

@@ -1,6 +1,5 @@
-import { createHash } from "node:crypto";
 import {
-  analyseCapture, CaptureRejection, computeWaveformEnvelope, createCaptureParser, ratingSchema, toleranceProfileSchema,
+  analyseCapture, CaptureRejection, computeWaveformEnvelope, ratingSchema, toleranceProfileSchema,
   type AnalysisReport, type ChannelRole, type UncertaintyInstrument,
 } from "@/lib/analysis";
 import type { NewAnalysis } from "@/db/queries/analyses";
@@ -8,7 +7,8 @@ import type { Capture } from "@/db/schema";
 import { getEnv } from "@/lib/server/env";
 import { ConfigurationProblem, toleranceDigest, type Judgement } from "@/lib/server/judgement";
 import { talkingTo } from "@/lib/server/outage";
-import { isPreconditionFailed, openObjectStream } from "@/lib/server/storage";
+import { isPreconditionFailed } from "@/lib/server/storage";
+import { readStoredCapture, type StoredRead } from "@/lib/server/stored-capture";
 
 /** Points per channel in the stored waveform preview: enough for a full-width plot, small as JSON. */
 export const PREVIEW_BUCKETS = 2000;
@@ -32,7 +32,8 @@ export function worstThd(report: AnalysisReport): number | null {
 }
 
 /**
- * Streams the raw object, checks it against the sha256 recorded at upload, parses and analyses it.
+ * Reads the raw object (large ones with parallel ranged GETs into the two-thread ingestion), checks
+ * it against the sha256 and size recorded at upload, then analyses the parse.
  * Progress runs 0–80 while reading (the parse happens as bytes arrive), then 90 once analysed.
  * Throws CaptureRejection for input the engine or the integrity check refuses.
  */
@@ -47,36 +48,28 @@ export async function runAnalysis(
   }
   const ids = new Set([...Object.keys(capture.probeScales), ...Object.keys(capture.channelOffsets)]);
   const calibration = Object.fromEntries([...ids].map((id) => [id, { scale: capture.probeScales[id], offset: capture.channelOffsets[id] }]));
-  const parser = createCaptureParser({
+  const parseOptions = {
     calibration, maxBytes: getEnv().UPLOAD_MAX_BYTES, expectedBytes: capture.sizeBytes,
     ...(capture.sampleRateHz !== null ? { sampleRateHz: capture.sampleRateHz } : {}),
-  });
-  const hash = createHash("sha256");
-  let read = 0;
+  };
+  let stored: StoredRead;
   try {
     // A store that stops answering mid-read is an outage (retried from the start), not a bad file.
-    await talkingTo("file store", async () => {
-      const stream = await openObjectStream(capture.objectKey, capture.objectEtag ?? undefined);
-      for await (const chunk of stream as AsyncIterable<Uint8Array>) {
-        hash.update(chunk);
-        parser.push(chunk);
-        read += chunk.length;
-        onProgress((80 * read) / Math.max(1, capture.sizeBytes));
-      }
-    });
+    stored = await talkingTo("file store", () => readStoredCapture(capture, parseOptions, (share) => onProgress(80 * share)));
   } catch (err) {
     if (isPreconditionFailed(err)) {
       throw new CaptureRejection("object-changed", "The stored file changed after its upload was completed: upload it again as a new capture");
     }
     throw err;
   }
-  if (read !== capture.sizeBytes || hash.digest("hex") !== capture.sha256) {
+  if (stored.bytes !== capture.sizeBytes || stored.sha256 !== capture.sha256) {
     throw new CaptureRejection(
       "checksum-mismatch",
-      `The stored file (${read} bytes) does not match the sha256 and size given at upload: upload the file again`,
+      `The stored file (${stored.bytes} bytes) does not match the sha256 and size given at upload: upload the file again`,
     );
   }
-  const parsed = parser.finish();
+  if (!stored.parsed) throw stored.parseError;
+  const parsed = stored.parsed;
   if (capture.speedRpm !== null && !(capture.speedRpm >= 1)) {
     // Speeds stored before the 1 rpm bound: refused with the field named rather than a schema error.
     throw new CaptureRejection("speed-too-low", `The shaft speed given, ${capture.speedRpm} rpm, is below 1 rpm: correct the capture's speed`);

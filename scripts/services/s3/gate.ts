@@ -7,6 +7,7 @@
 // test quota) answers 507 with a sentence and the process stays up.
 import { rmSync, createReadStream } from "node:fs";
 import http, { type IncomingMessage, type ServerResponse } from "node:http";
+import { serveObjectGet } from "./direct-get";
 import { checkBody, diskFull, folderBytes, isDiskFull, spoolBody, type Spooled } from "./body";
 import { answerPreflight, corsHeaders } from "./cors";
 import { S3Failure, sendError } from "./errors";
@@ -83,6 +84,7 @@ async function handle(opts: GateOptions, req: IncomingMessage, res: ServerRespon
     }
     if (writes) requireOpenUpload(opts.dataDir, target, uploadId);
   }
+  if (req.method === "GET" && target && uploadId === null && serveObjectGet(opts.dataDir, target, url, req, res, cors)) return;
   let body: Spooled | null = null;
   try {
     if (writes) {
