@@ -91,14 +91,28 @@ const { createHash } = require("node:crypto");
 
 type Waiter = { resolve: () => void; reject: (error: unknown) => void };
 
-async function writeStream(handle: FileHandle, body: AsyncIterable<Uint8Array>, position: number): Promise<number> {
-  let at = position;
-  for await (const chunk of body) {
+/** Gathers a range's chunks in the lane's buffer, then writes it with one call (64 KiB writes cost more than the copy). */
+async function writeStream(handle: FileHandle, body: AsyncIterable<Uint8Array>, position: number, scratch: Uint8Array): Promise<number> {
+  let filled = 0;
+  let total = 0;
+  const flush = async (): Promise<void> => {
     let done = 0;
-    while (done < chunk.length) done += (await handle.write(chunk, done, chunk.length - done, at + done)).bytesWritten;
-    at += chunk.length;
+    while (done < filled) done += (await handle.write(scratch, done, filled - done, position + total - filled + done)).bytesWritten;
+    filled = 0;
+  };
+  for await (const chunk of body) {
+    let at = 0;
+    while (at < chunk.length) {
+      const take = Math.min(chunk.length - at, scratch.length - filled);
+      scratch.set(chunk.subarray(at, at + take), filled);
+      filled += take;
+      total += take;
+      at += take;
+      if (filled === scratch.length) await flush();
+    }
   }
-  return at - position;
+  await flush();
+  return total;
 }
 
 async function collect(body: AsyncIterable<Uint8Array>, into: Uint8Array): Promise<number> {
@@ -145,12 +159,12 @@ export async function spoolObject(options: SpoolOptions): Promise<SpooledObject>
     aborter.abort();
   };
 
-  const fetchInto = async (index: number): Promise<void> => {
+  const fetchInto = async (index: number, scratch: Uint8Array): Promise<void> => {
     const start = index * rangeBytes;
     const end = Math.min(size, start + rangeBytes) - 1;
     for (let attempt = 1; ; attempt++) {
       try {
-        const got = await writeStream(handle, await fetchRange(start, end, aborter.signal), start);
+        const got = await writeStream(handle, await fetchRange(start, end, aborter.signal), start, scratch);
         if (got !== end + 1 - start) throw new Error(`the store sent ${got} bytes for range ${start}-${end}`);
         return;
       } catch (error) {
@@ -163,9 +177,10 @@ export async function spoolObject(options: SpoolOptions): Promise<SpooledObject>
   const order = twoFrontOrder(count);
   let next = 0;
   const lanes = Array.from({ length: Math.min(options.lanes ?? SPOOL_LANES, Math.max(1, count)) }, async () => {
+    const scratch = new Uint8Array(Math.min(rangeBytes, Math.max(1, size)));
     while (failure === null && !closed && next < order.length) {
       const index = order[next++] as number;
-      await fetchInto(index);
+      await fetchInto(index, scratch);
       written += Math.min(rangeBytes, size - index * rangeBytes);
       Atomics.store(flags, index, RANGE_WRITTEN);
       Atomics.notify(flags, index);

@@ -23,6 +23,7 @@ process.stdout.write(
     totalS: (done - start) / 1000,
     ingestPath,
     peakRssMb: process.resourceUsage().maxRSS / 1024,
+    cpuS: (process.resourceUsage().userCPUTime + process.resourceUsage().systemCPUTime) / 1e6,
     frequencyHz: report.frequencyHz,
     thdFPercent: report.channels[0]?.thdFPercent ?? null,
     rms: report.channels[0]?.rms ?? null,
