@@ -6,26 +6,26 @@
 # paused, then 1, 2 and 4 workers drain it; prints captures per minute. Needs root (ip netns).
 # Where the kernel refuses network namespaces, the workers run as separate users in separate working
 # directories and reach the services over this host's non-loopback address (mode "users").
-#   bash scripts/hosts/run.sh [--short] [--captures N] [--workers 1,2,4] [--mode netns|users]
+#   bash scripts/hosts/run.sh [--short] [--captures N] [--rows R] [--workers 1,2,4] [--mode netns|users]
 #   --short: one namespace, one worker, 3 captures: proves a worker on another "host" analyses end to end
 set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/../lib-setup.sh"
 
-short=0 mode="" captures="" workers=""
+short=0 mode="" captures="" workers="" rows=""
 while (($# > 0)); do
   case "$1" in
     --short) short=1 ;;
     --captures) captures="$2"; shift ;;
     --workers) workers="$2"; shift ;;
+    --rows) rows="$2"; shift ;;
     --mode) mode="$2"; shift ;;
-    *) echo "usage: bash scripts/hosts/run.sh [--short] [--captures N] [--workers 1,2,4] [--mode netns|users]" >&2; exit 2 ;;
+    *) echo "usage: bash scripts/hosts/run.sh [--short] [--captures N] [--rows R] [--workers 1,2,4] [--mode netns|users]" >&2; exit 2 ;;
   esac
   shift
 done
-rows=50000
-((short)) && { captures="${captures:-3}"; workers="${workers:-1}"; rows=20000; }
-captures="${captures:-40}" workers="${workers:-1,2,4}"
-[[ "$captures" =~ ^[0-9]+$ && "$workers" =~ ^[0-9]+(,[0-9]+)*$ ]] || { echo "--captures N and --workers 1,2,4 take whole numbers" >&2; exit 2; }
+((short)) && { captures="${captures:-3}"; workers="${workers:-1}"; rows="${rows:-20000}"; }
+captures="${captures:-40}" workers="${workers:-1,2,4}" rows="${rows:-50000}"
+[[ "$captures" =~ ^[0-9]+$ && "$rows" =~ ^[0-9]+$ && "$workers" =~ ^[0-9]+(,[0-9]+)*$ ]] || { echo "--captures N, --rows R and --workers 1,2,4 take whole numbers" >&2; exit 2; }
 max_workers="$(tr ',' '\n' <<<"$workers" | sort -n | tail -n 1)"
 ((max_workers >= 1 && max_workers <= 16)) || { echo "--workers: 1 to 16 worker processes" >&2; exit 2; }
 ((EUID == 0)) || { echo "scripts/hosts/run.sh needs root (ip netns, veth, runuser)" >&2; exit 1; }
