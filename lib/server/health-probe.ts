@@ -4,9 +4,21 @@ import { HEALTH_HEADERS, healthAnswer, isHealthPath, type HealthAnswer } from ".
 // The health probes on a plain Node server (scripts/serve.ts, before Next): the same answers as the
 // route handlers, without Next's proxy, routing and response machinery on every probe.
 
+/**
+ * The headers next.config.mjs gives every answer Next sends (this one bypasses Next);
+ * tests/integration/health-fast-path.test.ts compares them with that file.
+ */
+export const SITE_HEADERS = {
+  "X-Frame-Options": "DENY",
+  "X-Content-Type-Options": "nosniff",
+  "Referrer-Policy": "same-origin",
+  "Permissions-Policy": "camera=(), microphone=(), geolocation=()",
+  "Content-Security-Policy": "frame-ancestors 'none'",
+} as const;
+
 function send(res: ServerResponse, { status, body }: HealthAnswer, head: boolean): void {
   const json = JSON.stringify(body);
-  res.writeHead(status, { ...HEALTH_HEADERS, "Content-Type": "application/json", "Content-Length": Buffer.byteLength(json) });
+  res.writeHead(status, { ...SITE_HEADERS, ...HEALTH_HEADERS, "Content-Type": "application/json", "Content-Length": Buffer.byteLength(json) });
   res.end(head ? undefined : json);
 }
 

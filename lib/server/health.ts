@@ -10,7 +10,8 @@ export type HealthAnswer = { status: number; body: unknown };
 export const HEALTH_PATHS = ["/api/health/live", "/api/health/ready", "/api/health"] as const;
 export type HealthPath = (typeof HEALTH_PATHS)[number];
 
-export const HEALTH_HEADERS = { "Cache-Control": "no-store", "X-Content-Type-Options": "nosniff" } as const;
+/** What the route handlers add; next.config.mjs adds the site's security headers to their answers. */
+export const HEALTH_HEADERS = { "Cache-Control": "no-store" } as const;
 
 export function isHealthPath(path: string): path is HealthPath {
   return (HEALTH_PATHS as readonly string[]).includes(path);

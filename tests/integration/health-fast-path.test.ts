@@ -4,7 +4,9 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { GET as legacy } from "@/app/api/health/route";
 import { GET as live } from "@/app/api/health/live/route";
 import { GET as ready } from "@/app/api/health/ready/route";
-import { answerProbe } from "@/lib/server/health-probe";
+import { answerProbe, SITE_HEADERS } from "@/lib/server/health-probe";
+// @ts-expect-error plain .mjs without types
+import nextConfig from "@/next.config.mjs";
 import { closeConnections } from "./pipeline-support";
 
 // scripts/serve.ts answers the probe paths with answerProbe before Next; here the same function
@@ -49,6 +51,17 @@ describe("answerProbe (the probes in scripts/serve.ts)", () => {
     expect(JSON.stringify(body)).not.toMatch(/127\.0\.0\.1|:\d{4,5}|postgres:\/\//);
     const older = await fetch(`${base}/api/health`);
     expect(await older.json()).toEqual(await (await legacy()).json());
+  });
+
+  it("answerProbe sends the security headers next.config.mjs gives every path Next answers", async () => {
+    type HeaderRule = { source: string; headers: Array<{ key: string; value: string }> };
+    const rules = (await (nextConfig as { headers(): Promise<HeaderRule[]> }).headers())
+      .filter((rule) => new RegExp(`^${rule.source.replace("/:path*", "/.*")}$`).test("/api/health/ready"));
+    const expected = Object.fromEntries(rules.flatMap((rule) => rule.headers.map((h) => [h.key, h.value])));
+    expect(Object.keys(expected).length).toBeGreaterThanOrEqual(5);
+    expect(SITE_HEADERS).toEqual(expected);
+    const res = await fetch(`${base}/api/health/ready`);
+    for (const [key, value] of Object.entries(expected)) expect(res.headers.get(key), key).toBe(value);
   });
 
   it("answerProbe answers HEAD without a body and leaves other methods and paths to Next", async () => {
