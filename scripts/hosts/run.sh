@@ -64,30 +64,37 @@ cleanup() {
 trap cleanup EXIT
 trap 'exit 130' INT TERM
 
+fail() { echo "hosts run: $*" >&2; exit 1; }
+
+# Namespaces and the bridge an earlier run of this checkout left (killed before its trap ran): ours by name.
+remove_stale() {
+  local ns
+  for ns in $(ip netns list 2>/dev/null | awk '{ print $1 }' | grep -E "^${TAG}-(h[0-9]+|probe)$" || true); do ip netns del "$ns" 2>/dev/null || true; done
+  ip link show "$BRIDGE" >/dev/null 2>&1 && ip link del "$BRIDGE" 2>/dev/null || true
+}
+
 # netns mode: a bridge with the services' address, one namespace per worker host on a veth pair.
+# Returns 1 only when the kernel refuses namespaces or bridges (then the users mode runs); any later
+# failure stops the run.
 setup_netns() {
+  remove_stale
   ip netns add "${TAG}-probe" 2>/dev/null || return 1
   ip netns del "${TAG}-probe"
-  if ip -4 -o addr show | grep -q " $NET\.1/"; then
-    echo "$NET.1 is already an address of this machine (another run? EMFOLIO_HOSTS_NET picks another /24)" >&2
-    exit 1
-  fi
-  ip link add "$BRIDGE" type bridge || return 1
+  ip -4 -o addr show | grep -q " $NET\.1/" && fail "$NET.1 is already an address of this machine (another run? EMFOLIO_HOSTS_NET picks another /24)"
+  ip link add "$BRIDGE" type bridge 2>/dev/null || return 1
   links+=("$BRIDGE")
-  ip addr add "$NET.1/24" dev "$BRIDGE"
-  ip link set "$BRIDGE" up
+  ip addr add "$NET.1/24" dev "$BRIDGE" || fail "cannot give $BRIDGE the address $NET.1"
+  ip link set "$BRIDGE" up || fail "cannot bring $BRIDGE up"
   local i ns
   for ((i = 1; i <= max_workers; i++)); do
     ns="${TAG}-h$i"
-    ip netns add "$ns"
+    ip netns add "$ns" || fail "ip netns add $ns"
     namespaces+=("$ns")
-    ip link add "${TAG}v$i" type veth peer name "${TAG}p$i"
+    ip link add "${TAG}v$i" type veth peer name "${TAG}p$i" || fail "veth pair for $ns"
     links+=("${TAG}v$i")
-    ip link set "${TAG}v$i" master "$BRIDGE" up
-    ip link set "${TAG}p$i" netns "$ns"
-    ip -n "$ns" addr add "$NET.$((10 + i))/24" dev "${TAG}p$i"
-    ip -n "$ns" link set "${TAG}p$i" up
-    ip -n "$ns" link set lo up
+    { ip link set "${TAG}v$i" master "$BRIDGE" up && ip link set "${TAG}p$i" netns "$ns" &&
+      ip -n "$ns" addr add "$NET.$((10 + i))/24" dev "${TAG}p$i" && ip -n "$ns" link set "${TAG}p$i" up &&
+      ip -n "$ns" link set lo up; } || fail "cannot wire $ns to $BRIDGE"
   done
   export EMFOLIO_BIND_ADDRESS="$NET.1" EMFOLIO_CLIENT_CIDR="$NET.0/24"
 }
@@ -96,15 +103,14 @@ setup_netns() {
 setup_users() {
   local addr i user
   addr="$(ip -4 -o addr show scope global 2>/dev/null | awk '{ sub(/\/.*/, "", $4); print $4; exit }')"
-  [[ -n "$addr" ]] || { echo "no non-loopback IPv4 address on this machine for the users mode" >&2; exit 1; }
+  [[ -n "$addr" ]] || fail "no non-loopback IPv4 address on this machine for the users mode"
   for ((i = 1; i <= max_workers; i++)); do
     user="${TAG}w$i"
     if ! id "$user" >/dev/null 2>&1; then
-      useradd --system --no-create-home --shell /usr/sbin/nologin "$user"
+      useradd --system --no-create-home --shell /usr/sbin/nologin "$user" || fail "useradd $user"
       users+=("$user")
     fi
-    mkdir -p "$RUN/home-$i"
-    chown "$user" "$RUN/home-$i"
+    mkdir -p "$RUN/home-$i" && chown "$user" "$RUN/home-$i" || fail "working directory for $user"
   done
   export EMFOLIO_BIND_ADDRESS="$addr" EMFOLIO_CLIENT_CIDR="$addr/32"
 }
