@@ -114,9 +114,22 @@ export async function getAnalysisJobState(captureId: string): Promise<{ state: s
 }
 
 /** Pings Redis over the producer's own connection (readiness); fails fast while it is down. */
+/** How long a ping waits for a connection still being opened (the first check after start). */
+const PING_CONNECT_WAIT_MS = 3_000;
+
 export async function pingQueue(): Promise<void> {
   getAnalysisQueue();
-  await globalForQueue.emfolioQueueRedis?.ping();
+  const redis = globalForQueue.emfolioQueueRedis;
+  // The queue connection has no offline queue, so a command sent before it is ready fails at once:
+  // the first readiness check after start would report Redis down when it is only connecting.
+  if (redis && (redis.status === "connecting" || redis.status === "connect" || redis.status === "wait")) {
+    await new Promise<void>((resolve) => {
+      const timer = setTimeout(done, PING_CONNECT_WAIT_MS);
+      function done() { clearTimeout(timer); redis?.off("ready", done); resolve(); }
+      redis.once("ready", done);
+    });
+  }
+  await redis?.ping();
 }
 
 export async function closeAnalysisQueue(): Promise<void> {

@@ -36,7 +36,12 @@ function checks(): Check[] {
   ];
 }
 
-const slowRuns = new Map<string, number>();
+type Cache = { value?: Readiness; at: number; running?: Promise<Readiness>; slowRuns: Map<string, number> };
+// On globalThis: scripts/serve.ts (loaded by tsx) and Next's bundle (the /api/health route) each hold
+// their own copy of this module, and must share one measurement.
+const globalForReadiness = globalThis as unknown as { emfolioReadiness?: Cache };
+const cache: Cache = (globalForReadiness.emfolioReadiness ??= { at: 0, slowRuns: new Map() });
+const slowRuns = cache.slowRuns;
 
 async function probe(check: Check): Promise<ServiceState> {
   let timer: NodeJS.Timeout | undefined;
@@ -50,8 +55,6 @@ async function probe(check: Check): Promise<ServiceState> {
   slowRuns.set(check.service, runs);
   return state === "slow" && runs >= SLOW_CHECKS_BEFORE_DOWN ? "down" : state;
 }
-
-const cache: { value?: Readiness; at: number; running?: Promise<Readiness> } = { at: 0 };
 
 async function measure(): Promise<Readiness> {
   const list = checks();

@@ -8,9 +8,14 @@
 # --check: list what is missing and exit 1 if anything is, install nothing.
 set -euo pipefail
 
+# Major versions: Debian 12's (the image in docker/Dockerfile is bookworm too). docker/compose.yaml
+# runs the same majors (postgres:15, redis:7); tests/unit/scripts/docker-consistency.test.ts checks.
+PG_MAJOR=15
+REDIS_MAJOR=7
+
 PACKAGES=(
-  postgresql     # database (scripts/services.sh)
-  redis-server   # queue (scripts/services.sh)
+  "postgresql-$PG_MAJOR" # database (scripts/services.sh)
+  redis-server   # queue (scripts/services.sh), Redis $REDIS_MAJOR on Debian 12
   chromium       # end-to-end tests (Playwright, executablePath /usr/bin/chromium)
   poppler-utils  # pdftoppm/pdftotext: checking generated PDF reports
   python3-numpy  # reference implementation in the benchmark (scripts/bench)
@@ -43,6 +48,12 @@ for pkg in "${PACKAGES[@]}"; do
   done
   ((found)) || missing+=("$pkg")
 done
+
+# A Redis of another major (another Debian release) is named, not replaced.
+if command -v redis-server >/dev/null 2>&1; then
+  redis_major="$(redis-server --version | sed -n 's/.* v=\([0-9]*\)\..*/\1/p')"
+  [[ "$redis_major" == "$REDIS_MAJOR" ]] || echo "packages: redis-server is version $redis_major, docker/compose.yaml runs $REDIS_MAJOR" >&2
+fi
 
 if ((${#missing[@]} == 0)); then
   echo "packages: all present (${PACKAGES[*]})"

@@ -13,6 +13,13 @@ EMFOLIO_S3_PORT="${EMFOLIO_S3_PORT:-45690}"
 EMFOLIO_SMTP_PORT="${EMFOLIO_SMTP_PORT:-2529}"
 EMFOLIO_UPLOADTHING_PORT="${EMFOLIO_UPLOADTHING_PORT:-45700}"
 
+# EMFOLIO_BIND_ADDRESS: an IPv4 address the services listen on besides 127.0.0.1, for clients on
+# other hosts (workers and web instances; docs/deployment.md). Default 127.0.0.1: loopback only.
+# Beyond loopback PostgreSQL admits EMFOLIO_CLIENT_CIDR (scram-sha-256, required then), Redis
+# requires a password (.data/redis-secret), and the S3, SMTP and uploadthing fakes keep their own auth.
+EMFOLIO_BIND_ADDRESS="${EMFOLIO_BIND_ADDRESS:-127.0.0.1}"
+EMFOLIO_CLIENT_CIDR="${EMFOLIO_CLIENT_CIDR:-}"
+
 # EMFOLIO_DATA_DIR gives a second set of services (other ports) a folder of its own (the fault script).
 DATA_DIR="${EMFOLIO_DATA_DIR:-$PROJECT_ROOT/.data}"
 RUN_DIR="$DATA_DIR/run"
@@ -142,6 +149,25 @@ apt_install() {
 # pkg_installed PKG: the Debian package is installed.
 pkg_installed() {
   [[ "$(dpkg-query -W -f='${Status}' "$1" 2>/dev/null)" == "install ok installed" ]]
+}
+
+# bind_beyond_loopback: the services also listen on EMFOLIO_BIND_ADDRESS.
+bind_beyond_loopback() {
+  [[ "$EMFOLIO_BIND_ADDRESS" != "127.0.0.1" ]]
+}
+
+# check_bind_settings: stops with a message on a bind address or client network that is not IPv4.
+check_bind_settings() {
+  local ipv4='^([0-9]{1,3}\.){3}[0-9]{1,3}$'
+  [[ "$EMFOLIO_BIND_ADDRESS" =~ $ipv4 ]] || die "EMFOLIO_BIND_ADDRESS must be an IPv4 address (got '$EMFOLIO_BIND_ADDRESS')"
+  bind_beyond_loopback || return 0
+  [[ "$EMFOLIO_CLIENT_CIDR" =~ ^([0-9]{1,3}\.){3}[0-9]{1,3}/[0-9]{1,2}$ ]] ||
+    die "EMFOLIO_BIND_ADDRESS=$EMFOLIO_BIND_ADDRESS needs EMFOLIO_CLIENT_CIDR, the network PostgreSQL admits (e.g. 10.77.0.0/24)"
+}
+
+# service_host: the address clients are given (scripts/services.sh env).
+service_host() {
+  printf '%s' "$EMFOLIO_BIND_ADDRESS"
 }
 
 need_node_modules() {

@@ -5,6 +5,12 @@
 # group; log in .data/log/<name>.log, pid in .data/run/<name>.pid.
 
 S3_DIR="$DATA_DIR/s3"
+
+# also_listen_args: the fakes' flag for EMFOLIO_BIND_ADDRESS (nothing on loopback only). Unquoted
+# on purpose where used: it is zero or two words, neither with spaces.
+also_listen_args() {
+  if bind_beyond_loopback; then printf -- '--also-listen %s' "$EMFOLIO_BIND_ADDRESS"; fi
+}
 S3_BUCKETS=(emfolio-captures emfolio-test)
 MAIL_DIR="$DATA_DIR/mail"
 UT_DIR="$DATA_DIR/uploadthing"
@@ -155,7 +161,7 @@ s3_origins() {
 s3_start() {
   mkdir -p "$S3_DIR"
   s3_secret >/dev/null
-  local args=(--port "$EMFOLIO_S3_PORT" --dir "$S3_DIR" --secret-file "$DATA_DIR/s3-secret")
+  local args=(--port "$EMFOLIO_S3_PORT" --dir "$S3_DIR" --secret-file "$DATA_DIR/s3-secret" $(also_listen_args))
   local b o
   for b in "${S3_BUCKETS[@]}"; do args+=(--bucket "$b"); done
   for o in $(s3_origins); do args+=(--origin "$o"); done
@@ -180,7 +186,7 @@ smtp_start() {
   mkdir -p "$MAIL_DIR"
   smtp_secret >/dev/null
   node_fake_start smtp "$EMFOLIO_SMTP_PORT" smtp_probe \
-    "$TSX" "$SERVICES_DIR/smtp-server.ts" --port "$EMFOLIO_SMTP_PORT" --dir "$MAIL_DIR" --secret-file "$DATA_DIR/smtp-secret"
+    "$TSX" "$SERVICES_DIR/smtp-server.ts" --port "$EMFOLIO_SMTP_PORT" --dir "$MAIL_DIR" --secret-file "$DATA_DIR/smtp-secret" $(also_listen_args)
 }
 
 smtp_stop() {
@@ -199,7 +205,7 @@ ut_probe() {
 ut_start() {
   mkdir -p "$UT_DIR"
   node_fake_start uploadthing "$EMFOLIO_UPLOADTHING_PORT" ut_probe \
-    "$TSX" "$SERVICES_DIR/uploadthing-server.ts" --port "$EMFOLIO_UPLOADTHING_PORT" --dir "$UT_DIR"
+    "$TSX" "$SERVICES_DIR/uploadthing-server.ts" --port "$EMFOLIO_UPLOADTHING_PORT" --dir "$UT_DIR" $(also_listen_args)
 }
 
 ut_stop() {

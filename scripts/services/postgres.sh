@@ -2,7 +2,7 @@
 # PostgreSQL for scripts/services.sh. Sourced after lib.sh.
 #
 # Cluster: .data/postgres (owned by the `postgres` OS user, mode 700), listening
-# on 127.0.0.1:$EMFOLIO_PG_PORT only, unix socket in /tmp/emfolio-pg-<port>
+# on 127.0.0.1:$EMFOLIO_PG_PORT (and EMFOLIO_BIND_ADDRESS, admitting EMFOLIO_CLIENT_CIDR, when set), unix socket in /tmp/emfolio-pg-<port>
 # (short path, reachable by the postgres user wherever the checkout lives).
 # Auth: TCP (127.0.0.1) uses scram-sha-256; app role emfolio / emfolio owns the
 # databases `emfolio` (demo) and `emfolio_test` (tests). The `postgres`
@@ -138,10 +138,26 @@ pg_provision() {
   done
 }
 
+# The addresses to listen on: loopback, plus EMFOLIO_BIND_ADDRESS when set (lib.sh).
+pg_listen_addresses() {
+  if bind_beyond_loopback; then printf '127.0.0.1,%s' "$EMFOLIO_BIND_ADDRESS"; else printf '127.0.0.1'; fi
+}
+
+# Keeps one marked pg_hba.conf line admitting EMFOLIO_CLIENT_CIDR (scram-sha-256) while the cluster
+# listens beyond loopback, and none otherwise.
+pg_sync_hba() {
+  local hba="$PG_DATA/pg_hba.conf" marker="# emfolio: clients on other hosts (EMFOLIO_CLIENT_CIDR)"
+  [[ -f "$hba" ]] || return 0
+  as_postgres sed -i "/^host all all .* scram-sha-256 $marker\$/d" "$hba"
+  if bind_beyond_loopback; then
+    printf 'host all all %s scram-sha-256 %s\n' "$EMFOLIO_CLIENT_CIDR" "$marker" | as_postgres tee -a "$hba" >/dev/null
+  fi
+}
+
 # shellcheck disable=SC2094 # pg_ctl messages and the server log share one file
 pg_ctl_start() {
   (cd / && as_postgres "$1/pg_ctl" -D "$PG_DATA" -l "$PG_LOG_REAL" -w -t "$START_TIMEOUT_PG" \
-    -o "-h 127.0.0.1 -p $EMFOLIO_PG_PORT -k $PG_SOCKET_DIR" start) >>"$PG_LOG_REAL" 2>&1 9>&-
+    -o "-h $(pg_listen_addresses) -p $EMFOLIO_PG_PORT -k $PG_SOCKET_DIR" start) >>"$PG_LOG_REAL" 2>&1 9>&-
 }
 
 pg_start() {
@@ -172,8 +188,9 @@ pg_start() {
     pg_initdb "$bin"
   fi
   pg_wait_reaped
+  pg_sync_hba
   # A crash can leave a stale postmaster.pid; pg_ctl handles that itself.
-  say "postgres: starting on 127.0.0.1:$EMFOLIO_PG_PORT"
+  say "postgres: starting on $(pg_listen_addresses) port $EMFOLIO_PG_PORT"
   if ! pg_ctl_start "$bin"; then
     # After a crash the old backends may still hold the shared memory for a moment.
     say "postgres: first start attempt failed, retrying in 3 s"

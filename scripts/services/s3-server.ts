@@ -4,9 +4,9 @@
  *
  *   node_modules/.bin/tsx scripts/services/s3-server.ts --port 45690 --dir .data/s3 \
  *     --secret-file .data/s3-secret --origin http://127.0.0.1:3000 [--origin ...] \
- *     [--bucket emfolio-captures ...] [--quota-bytes N]
+ *     [--bucket emfolio-captures ...] [--quota-bytes N] [--also-listen 10.77.0.1 ...]
  *
- * Listens on 127.0.0.1 only. Access key id `S3RVER` (the only one s3rver knows), the secret from
+ * Listens on 127.0.0.1 and the --also-listen addresses (EMFOLIO_BIND_ADDRESS). Access key id `S3RVER` (the only one s3rver knows), the secret from
  * --secret-file, region us-east-1. --quota-bytes makes the store refuse (507) writes that would
  * take --dir over that many bytes, as a full disk does; tests use it.
  */
@@ -17,6 +17,7 @@ import path from "node:path";
 import { parseArgs } from "node:util";
 import { isDiskFull } from "./s3/body";
 import { createGate } from "./s3/gate";
+import { alsoListen } from "./also-listen";
 
 type S3rverInstance = { run(): Promise<AddressInfo>; close(): Promise<void> };
 type S3rverClass = new (options: Record<string, unknown>) => S3rverInstance;
@@ -32,6 +33,7 @@ const { values } = parseArgs({
     origin: { type: "string", multiple: true, default: [] },
     bucket: { type: "string", multiple: true, default: [] },
     "quota-bytes": { type: "string" },
+    "also-listen": { type: "string", multiple: true, default: [] },
   },
 });
 
@@ -74,6 +76,7 @@ const gate = createGate({
 gate.listen(port, "127.0.0.1", () => {
   const address = gate.address() as AddressInfo;
   log(`emfolio object store listening on 127.0.0.1:${address.port} (store ${dataDir}, CORS for ${values.origin.join(" ") || "no origin"}${quota === null ? "" : `, quota ${quota} bytes`})`);
+  alsoListen(gate, values["also-listen"], address.port, log);
 });
 for (const signal of ["SIGTERM", "SIGINT"] as const) {
   process.on(signal, () => {

@@ -1,9 +1,9 @@
 /**
  * Local SMTP fake for development and tests (started by scripts/services.sh).
  *
- *   node_modules/.bin/tsx scripts/services/smtp-server.ts --port 2529 --dir .data/mail --secret-file .data/smtp-secret
+ *   node_modules/.bin/tsx scripts/services/smtp-server.ts --port 2529 --dir .data/mail --secret-file .data/smtp-secret [--also-listen HOST]
  *
- * Listens on 127.0.0.1 only, no TLS. Requires AUTH (PLAIN or LOGIN) as user `emfolio` with the
+ * Listens on 127.0.0.1 (and each --also-listen address: EMFOLIO_BIND_ADDRESS), no TLS. Requires AUTH (PLAIN or LOGIN) as user `emfolio` with the
  * password in --secret-file before MAIL FROM; anything else is refused (535, or 530 without AUTH). Each message is
  * stored as two files with the same base name:
  *   <dir>/<timestamp>-<id>.eml   the raw message as received
@@ -17,6 +17,7 @@ import { mkdirSync, readFileSync, renameSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { simpleParser, type AddressObject } from "mailparser";
 import { SMTPServer, type SMTPServerAddress } from "smtp-server";
+import { alsoListen, alsoListenHosts } from "./also-listen";
 
 /** The JSON record written for each message (format version 1). */
 export interface StoredMail {
@@ -191,6 +192,7 @@ server.on("error", (err: Error & { code?: string }) => {
 
 server.listen(port, "127.0.0.1", () => {
   console.log(`${new Date().toISOString()} emfolio smtp fake listening on 127.0.0.1:${port}, storing in ${dir}`);
+  alsoListen(server.server, alsoListenHosts(), port, (line) => console.log(`${new Date().toISOString()} ${line}`));
 });
 
 function shutdown(signal: string): void {

@@ -18,6 +18,7 @@ import { handleApi, handleCallbackResult, handleRouteMetadata } from "./uploadth
 import { HttpFailure, sendJson, setCors } from "./uploadthing/http";
 import { handleIngestHead, handleIngestPut, serveFile, type IngestContext } from "./uploadthing/ingest";
 import { FakeStore } from "./uploadthing/store";
+import { alsoListen, alsoListenHosts } from "./also-listen";
 
 function arg(name: string, fallback: string): string {
   const i = process.argv.indexOf(`--${name}`);
@@ -72,6 +73,7 @@ server.on("error", (err: Error & { code?: string }) => {
 
 server.listen(port, "127.0.0.1", () => {
   console.log(`${new Date().toISOString()} emfolio uploadthing fake listening on 127.0.0.1:${port}, storing in ${dir}`);
+  alsoListen(server, alsoListenHosts(), port, (line) => console.log(`${new Date().toISOString()} ${line}`));
 });
 
 function shutdown(signal: string): void {

@@ -1,6 +1,9 @@
+import { healthResponse, liveAnswer } from "@/lib/server/health";
+
 export const dynamic = "force-dynamic";
 
-// Liveness: the process answers. Touches no service, so it stays cheap under any load.
+// Liveness: the process answers. Touches no service, so it stays cheap under any load. In
+// production scripts/serve.ts answers this path itself, with the same function, before Next.
 export function GET() {
-  return Response.json({ ok: true }, { headers: { "Cache-Control": "no-store" } });
+  return healthResponse(liveAnswer());
 }
