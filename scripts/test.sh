@@ -48,6 +48,13 @@ node_modules/.bin/vitest run --project integration --reporter=default --reporter
 step "fault run, short form (own services on the test ports + 100)"
 bash scripts/faults/run.sh --short || status=1
 
+step "workers on other hosts, short form (a worker in a network namespace; own services on the test ports + 200)"
+if ((EUID == 0)); then
+  bash scripts/hosts/run.sh --short || status=1
+else
+  echo "not run: network namespaces need root (run the suite as root, or see docs/deployment.md)"
+fi
+
 step "end-to-end tests (Chromium)"
 export EMFOLIO_DIST_DIR=.next-test
 node_modules/.bin/next build >.data/log/test-build.log 2>&1 || { tail -50 .data/log/test-build.log; exit 1; }
