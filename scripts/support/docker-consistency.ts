@@ -6,7 +6,7 @@ import { envSchema } from "@/lib/server/env";
 
 // Does docker/ describe what the scripts run? Pure over the files' texts, so a test can plant a
 // mismatch in a copy. Each problem is one sentence; an empty list means consistent. YAML through
-// js-yaml (already in node_modules, via ESLint; no types, hence the one typed require below).
+// js-yaml (a devDependency; it ships no types, hence the one typed require below).
 
 const { load } = createRequire(import.meta.url)("js-yaml") as { load: (text: string) => unknown };
 
