@@ -61,12 +61,14 @@ export async function registerUnit(page: Page, serial: string, ratingPart = "KG-
  * Registers a new unit from the upload form (first rating offered) and uploads one capture for it;
  * resolves when the upload card reads analysed. Each call should pass its own serial.
  */
-export async function uploadForNewUnit(page: Page, serial: string, file: { name: string; csv: string }) {
+export async function uploadForNewUnit(page: Page, serial: string, file: { name: string; csv: string }, instruments: string[] = []) {
   await page.goto("/upload");
   await page.getByLabel("Unit serial").fill(serial);
   await page.getByLabel("Rating of the new unit").selectOption({ index: 1 });
   await page.getByLabel(`Register ${serial} as a new unit`).check();
   await page.getByLabel("Shaft speed (rpm)").fill("1500");
+  // Ticked on top of the bench's default set (asset tags).
+  for (const tag of instruments) await page.getByRole("group", { name: "Instruments" }).getByLabel(new RegExp(`^${tag} `)).check();
   await page.getByLabel("Capture files").setInputFiles([{ name: file.name, mimeType: "text/csv", buffer: Buffer.from(file.csv) }]);
   await page.getByRole("button", { name: "Upload 1 file" }).click();
   const card = page.getByTestId("upload-file");
