@@ -100,7 +100,6 @@ export function runMutant(mutant: Mutant, tree: string, reports: string): Outcom
       encoding: "utf8",
       timeout: TIME_LIMIT_MS,
       killSignal: "SIGKILL",
-      env: { ...process.env, FORCE_COLOR: "0" },
     });
     const seconds = (Date.now() - started) / 1000;
     if (run.error && (run.error as NodeJS.ErrnoException).code === "ETIMEDOUT") return { mutant, status: "timeout", by: `no result within ${TIME_LIMIT_MS / 1000} s (counted as killed)`, seconds };

@@ -29,7 +29,7 @@ describe("speedWindow and captureFitsStep (pins)", () => {
     const w = speedWindow(1500, 2);
     expect(rel(w.speedMinRpm, 1470)).toBeLessThan(1e-12);
     expect(rel(w.speedMaxRpm, 1530)).toBeLessThan(1e-12);
-    const step = { testKind: "no-load", speedMinRpm: 1470, speedMaxRpm: 1530 };
+    const step = { testKind: "no-load" as const, speedMinRpm: 1470, speedMaxRpm: 1530 };
     const fits = (speedRpm: number) => captureFitsStep(step, { testKind: "no-load", speedRpm });
     expect([fits(1470), fits(1530), fits(nextDown(1470)), fits(nextUp(1530))]).toEqual([true, true, false, false]);
   });

@@ -51,7 +51,8 @@ describe("figures (pins)", () => {
 
   it("figures averages only line-neutral (or single) channels for a line-neutral rating, never a line-line one", () => {
     const rating = ratingSchema.parse({ ...pmRating, voltageBasis: "line-neutral-rms", nominalVoltageV: 230 });
-    const channels = clean.channels.map((c, i) => (i === 0 ? { ...c, role: "van" as const, rms: 230 } : c));
+    const channels = [...clean.channels, { ...clean.channels[0]!, id: "van", role: "van" as const, rms: 230 }];
+    expect(channels.map((c) => c.role)).toEqual(["vab", "vbc", "vca", "van"]);
     expect(figures({ ...clean, channels }, rating, profileFromPreset("lab-own", rating)).voltage.value).toBe(230);
   });
 
