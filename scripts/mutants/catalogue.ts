@@ -75,12 +75,14 @@ export const MUTANTS: Mutant[] = [
     ["? (100 * magnitude(negative)) / positiveMagnitude", "? (100.1 * magnitude(negative)) / positiveMagnitude", "VUF scaled by 1.001"],
     ["return 100 * Math.sqrt((1 - root) / (1 + root));", "return 100 * Math.sqrt((1 - root) / (1 + root)) * 1.001;", "VUF from line magnitudes scaled by 1.001"],
     ["const beta = (a ** 4 + b ** 4 + c ** 4) / (squares * squares);", "const beta = (a ** 4 + b ** 4 + c ** 4) / (squares * squares * 1.0001);", "β nudged by 1e-4"],
+    ["return positiveMagnitude > 0 ?", "return positiveMagnitude >= 0 ?", "VUF of a zero positive sequence no longer null"],
   ]),
   ...group(`${A}three-phase.ts`, "three-phase", [
     ["sequence: positive >= negative ? \"positive\" : \"negative\"", "sequence: positive > negative ? \"positive\" : \"negative\"", "sequence edge (equal magnitudes) flipped"],
     ["fundamentalRms: magnitude(subtract(first.fundamental, second.fundamental)) / Math.SQRT2", "fundamentalRms: magnitude(subtract(first.fundamental, second.fundamental)) / (Math.SQRT2 * 1.001)", "derived line-line fundamental scaled by 0.999"],
     ["zero: magnitude(components.zero) / Math.SQRT2", "zero: magnitude(components.zero) / (Math.SQRT2 * 0.999)", "zero-sequence RMS scaled"],
     ["ieeePercent: basis === \"line-neutral\" ?", "ieeePercent: basis === \"line-line\" ?", "IEEE phase unbalance reported for the wrong basis"],
+    ["ca: displacementDeg(c, a)", "ca: displacementDeg(a, c)", "displacement c→a taken the wrong way round"],
   ]),
   ...group(`${A}telephone.ts`, "thf", [
     ["export const THF_BAND_HZ = 5000;", "export const THF_BAND_HZ = 4950;", "narrower THF band"],
@@ -183,6 +185,7 @@ export const MUTANTS: Mutant[] = [
     ["const zone = band.marginalZonePercent / 100;", "const zone = band.marginalZonePercent / 99.9;", "marginal zone nudged"],
     ["export const VERDICT_ORDER = [\"pass\", \"marginal\", \"inconclusive\", \"fail\"] as const;", "export const VERDICT_ORDER = [\"pass\", \"inconclusive\", \"marginal\", \"fail\"] as const;", "verdict order swapped"],
     ["figure.value === figure.expected ? \"pass\" : \"fail\"", "figure.value !== figure.expected ? \"pass\" : \"fail\"", "sequence verdict inverted"],
+    ["return worst < 0 ? \"inconclusive\"", "return worst < 0 ? \"pass\"", "nothing judged reads as a pass"],
   ]),
   ...group(`${A}figures.ts`, "figures", [
     ["upper: nominal * (1 + rule.upperPercent / 100)", "upper: nominal * (1 + rule.upperPercent / 99.9)", "relative upper edge nudged"],
@@ -193,6 +196,7 @@ export const MUTANTS: Mutant[] = [
     ["definition === \"nema\" ? \"nemaPercent\" : definition === \"ieee\" ? \"ieeePercent\" : \"vufPercent\"", "definition === \"nema\" ? \"ieeePercent\" : definition === \"ieee\" ? \"nemaPercent\" : \"vufPercent\"", "NEMA and IEEE unbalance swapped"],
     ["[\"van\", \"vbn\", \"vcn\", \"v\"].includes(c.role)", "[\"van\", \"vbn\", \"vcn\", \"v\", \"vab\"].includes(c.role)", "a line-line role counted as line-neutral voltage"],
     ["const nominalDisplacement = rating.phases === 3 ? 120 : rating.phases === 2 ? 90 : 180;", "const nominalDisplacement = rating.phases === 3 ? 120 : rating.phases === 2 ? 91 : 180;", "two-phase nominal displacement nudged"],
+    ["return present.length > 0 ? Math.max(...present) : null;", "return present.length > 0 ? Math.min(...present) : null;", "best channel judged instead of the worst"],
   ]),
   ...group(`${A}tolerance-presets.ts`, "presets", [
     ["if (kva === undefined || kva < 300) return null;", "if (kva === undefined || kva <= 300) return null;", "THF limit edge at 300 kVA"],
@@ -225,6 +229,8 @@ export const MUTANTS: Mutant[] = [
     ["beyond(i - 7, 0) === 8", "beyond(i - 7, 0) >= 7", "rule 4 needs all eight"],
     ["indicative: n < CAPABILITY_MIN_POINTS", "indicative: n <= CAPABILITY_MIN_POINTS", "indicative edge at 20 points"],
     ["const mrBar = ranges.length > 0 ? sum(ranges) / ranges.length : null;", "const mrBar = ranges.length > 0 ? sum(ranges) / values.length : null;", "MR̄ over n instead of n − 1 ranges"],
+    ["out.push(Math.abs((values[i] as number) - (values[i - 1] as number)))", "out.push((values[i] as number) - (values[i - 1] as number))", "abs removed from the moving range"],
+    ["(mean - lower) / (3 * sigma)", "(mean - lower) / (3.003 * sigma)", "Cpk lower side scaled"],
   ]),
   ...group(`${A}quality.ts`, "quality", [
     ["return Math.max(4, Math.ceil(0.02 * samplesPerCycle));", "return Math.max(4, Math.floor(0.02 * samplesPerCycle));", "flat-top length rounded down"],
@@ -239,6 +245,7 @@ export const MUTANTS: Mutant[] = [
     ["if (ratio > 1 / factor && ratio < factor) return null;", "if (ratio >= 1 / factor && ratio < factor) return null;", "exactly factor× low is implausible"],
     ["Math.abs(ratio / 10 ** nearest - 1) <= 0.25", "Math.abs(ratio / 10 ** nearest - 1) < 0.25", "near-decade edge at ±25 %"],
     ["PHASE_SET.includes(c.role)).length >= 2", "PHASE_SET.includes(c.role)).length > 2", "two phase roles on a single-phase rating warn"],
+    ["const ratio = Math.abs(measured) / expected;", "const ratio = measured / expected;", "abs removed: an inverted probe reads implausible"],
   ]),
   ...group(`${A}plan-evaluation.ts`, "plan", [
     ["const ke = sxy / sxx;", "const ke = (sxy / sxx) * 1.001;", "Ke fit scaled"],
@@ -246,6 +253,7 @@ export const MUTANTS: Mutant[] = [
     ["(100 * Math.abs(p.ke * p.speedRpm - ke * p.speedRpm))", "(100 * (p.ke * p.speedRpm - ke * p.speedRpm))", "abs removed from linearity"],
     ["marginal: \"passed\"", "marginal: \"failed\"", "a marginal record fails its step"],
     ["b.createdAt.getTime() - a.createdAt.getTime()", "a.createdAt.getTime() - b.createdAt.getTime()", "oldest capture taken instead of the latest"],
+    ["statuses.has(\"failed\") || keFit?.status === \"fail\"", "statuses.has(\"failed\")", "a failing Ke fit no longer fails the plan"],
   ]),
   ...group(`${A}rating.ts`, "rating", [
     ["const implied = (r.poles * r.ratedSpeedRpm) / 120;", "const implied = (r.poles * r.ratedSpeedRpm) / 120.12;", "f = p·n/120 nudged"],

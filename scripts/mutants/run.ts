@@ -116,7 +116,7 @@ function snapshot(files: string[]): string[] {
   return files.map((file) => readFileSync(path.join(ROOT, file), "utf8"));
 }
 
-function main(): void {
+async function main(): Promise<void> {
   const mutants = selectMutants();
   const files = [...new Set(mutants.map((m) => m.file))];
   const before = snapshot(files);
@@ -127,21 +127,31 @@ function main(): void {
   makeScratchTree(tree);
   const outcomes: Outcome[] = [];
   const started = Date.now();
+  // A signal sets the flag; the loop yields to the event loop between mutants so the handler runs,
+  // and the finally below removes the scratch tree. Ctrl-C also reaches the vitest child (same
+  // process group), which ends the current run early.
+  let stopping = false;
   const stop = () => {
-    rmSync(scratch, { recursive: true, force: true });
-    process.exit(130);
+    stopping = true;
   };
   process.on("SIGINT", stop);
   process.on("SIGTERM", stop);
   try {
     for (const [index, mutant] of mutants.entries()) {
+      await new Promise((resolve) => setImmediate(resolve));
+      if (stopping) break;
       const outcome = runMutant(mutant, tree, reports);
+      if (stopping) break;
       outcomes.push(outcome);
       const mark = outcome.status === "survived" ? "SURVIVED" : outcome.status;
       console.log(`[${index + 1}/${mutants.length}] ${mutant.id.padEnd(18)} ${mark.padEnd(8)} ${outcome.seconds.toFixed(1).padStart(5)} s  ${outcome.by || mutant.why}`);
     }
   } finally {
     rmSync(scratch, { recursive: true, force: true });
+  }
+  if (stopping) {
+    console.error(`mutants: stopped after ${outcomes.length} of ${mutants.length}`);
+    process.exit(130);
   }
   const clean = snapshot(files).every((text, i) => text === before[i]);
   const survived = outcomes.filter((o) => o.status === "survived" || o.status === "error");
@@ -153,4 +163,4 @@ function main(): void {
   process.exit(survived.length > 0 || !clean ? 1 : 0);
 }
 
-if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(import.meta.filename)) main();
+if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(import.meta.filename)) void main();

@@ -48,3 +48,9 @@ describe("plausibility edges (pins)", () => {
     expect(roleWarning([v("a", "van"), v("b", "v")], { phases: 1 }, false)).toBeNull();
   });
 });
+
+describe("levelWarning sign (pins)", () => {
+  it("levelWarning compares magnitudes: −400 V against 400 V rated is plausible (an inverted probe is not a ratio error)", () => {
+    expect(levelWarning("implausible-voltage", "Voltage", -400, 400, "V", 3)).toBeNull();
+  });
+});

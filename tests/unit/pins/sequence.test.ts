@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { analyseChannel, type ChannelAnalysis } from "@/lib/analysis/channel-metrics";
 import { analyseThreePhase } from "@/lib/analysis/three-phase";
-import { computeMaxDeviationUnbalance, computeVufFromLineMagnitudes } from "@/lib/analysis/sequence";
+import { computeMaxDeviationUnbalance, computeVuf, computeVufFromLineMagnitudes } from "@/lib/analysis/sequence";
 import type { ChannelRole } from "@/lib/analysis/types";
 import { PINS, rel } from "./steps";
 
@@ -42,5 +42,17 @@ describe("unbalance (pins)", () => {
 
   it("computeVufFromLineMagnitudes(460, 467, 450) equals |V2|/|V1| of the closed triangle (numpy Fortescue)", () => {
     expect(rel(computeVufFromLineMagnitudes(460, 467, 450)!, PINS.vuf_460_467_450!)).toBeLessThan(1e-9);
+  });
+});
+
+describe("displacement and VUF edges (pins)", () => {
+  it("analyseThreePhase gives +120° for ab, bc and ca of a positive-sequence set (a leads b leads c leads a)", () => {
+    const result = analyseThreePhase(analysed([["van", phase(325, 0)], ["vbn", phase(325, (-2 * Math.PI) / 3)], ["vcn", phase(325, (2 * Math.PI) / 3)]]), window)!;
+    for (const d of Object.values(result.report.displacementDeg)) expect(Math.abs(d - 120)).toBeLessThan(1e-9);
+  });
+
+  it("computeVuf is not computable without a positive sequence (null), and 100·|V2|/|V1| otherwise", () => {
+    expect(computeVuf({ re: 0, im: 0 }, { re: 1, im: 0 })).toBeNull();
+    expect(rel(computeVuf({ re: 0, im: 200 }, { re: 3, im: 4 })!, 2.5)).toBeLessThan(1e-12);
   });
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { runRules, summariseSeries } from "@/lib/analysis/spc";
+import { capability, movingRanges, runRules, summariseSeries } from "@/lib/analysis/spc";
 import { nextUp, rel } from "./steps";
 
 describe("summariseSeries (pins)", () => {
@@ -39,5 +39,13 @@ describe("runRules edges (pins: Western Electric rules, 'beyond' is strictly bey
   it("runRules rule 4: eight on one side, not seven", () => {
     expect(runRules([-0.5, 0.5, 0.5, 0.5, 0.5, 0.5, 0.5, 0.5], 0, 1)[7]).toEqual([]);
     expect(runRules(Array(8).fill(0.5), 0, 1)[7]).toEqual([4]);
+  });
+});
+
+describe("capability and moving ranges (pins)", () => {
+  it("movingRanges are absolute differences and Cpk of a one-sided band takes its one side: (mean − LSL)/(3σ) (by hand)", () => {
+    expect(movingRanges([10, 12, 11, 13, 12])).toEqual([2, 1, 2, 1]);
+    expect(capability(11, 0.5, { lower: 8, upper: null })).toEqual({ cp: null, cpk: 2 });
+    expect(capability(11, 0.5, { lower: null, upper: 14 })).toEqual({ cp: null, cpk: 2 });
   });
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { judge } from "@/lib/analysis/verdicts";
+import { judge, overallStatus } from "@/lib/analysis/verdicts";
 import { judgeGuarded } from "@/lib/analysis/decision-rule";
 import { figures } from "@/lib/analysis/figures";
 import { profileFromPreset } from "@/lib/analysis/tolerance-presets";
@@ -62,5 +62,20 @@ describe("figures (pins)", () => {
     expect([twoBand.lower, twoBand.nominal, twoBand.upper]).toEqual([88, 90, 92]);
     const threeBand = figures(clean, pmRating, pmProfile)["phase-displacement"].band!;
     expect([threeBand.lower, threeBand.nominal, threeBand.upper]).toEqual([118, 120, 122]);
+  });
+});
+
+describe("worst channel and overall status (pins)", () => {
+  it("figures judges the worst voltage channel: THD 1, 2 and 3 % read 3 %", () => {
+    const clean = cleanReport();
+    const channels = clean.channels.map((c, i) => ({ ...c, thdFPercent: i + 1 }));
+    expect(figures({ ...clean, channels }, pmRating, pmProfile).thd.value).toBe(3);
+  });
+
+  it("overallStatus of nothing judged is inconclusive, and the worst of pass, marginal, inconclusive, fail otherwise", () => {
+    expect(overallStatus([])).toBe("inconclusive");
+    expect(overallStatus([{ status: "pass" }, { status: "marginal" }])).toBe("marginal");
+    expect(overallStatus([{ status: "marginal" }, { status: "inconclusive" }])).toBe("inconclusive");
+    expect(overallStatus([{ status: "fail" }, { status: "inconclusive" }])).toBe("fail");
   });
 });
