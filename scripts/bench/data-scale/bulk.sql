@@ -45,7 +45,7 @@ select 'SC' || lpad(i::text, 6, '0'), r.id, r.organisation_id, (select id from l
        (case when i % 10 = 0 then 'open' when i % 10 = 1 then 'open' when i % 50 = 7 then 'rework' else 'accepted' end)::disposition,
        (case when i % 10 = 0 then 'failed' when i % 10 = 1 then 'incomplete' else 'complete-within' end)::plan_state,
        (select id from mgr), now() - interval '730 days' + (i * interval '1 hour' * 1.7)
-from generate_series(1, 10000) i join lab_ratings r on r.k = i % 20;
+from generate_series(1, {{UNITS}}) i join lab_ratings r on r.k = i % 20;
 
 -- 100 captures per unit, spread over the two years before now.
 create temporary table su as
@@ -59,7 +59,7 @@ select su.id, (select id from lab), b.id, (select id from mgr), coalesce(r.test_
        (case when ck = 50 then 'failed' when ck = 60 and su.n % 5 = 0 then 'rejected' else 'analysed' end)::capture_state,
        case when ck = 50 then 'The analysis failed after 5 attempts' when ck = 60 and su.n % 5 = 0 then 'The file has no numeric columns' end,
        100, 1, t, t + interval '20 seconds', t, t + interval '20 seconds'
-from su cross join generate_series(1, 100) as g(ck)
+from su cross join generate_series(1, {{PER_UNIT}}) as g(ck)
 join lab_ratings r on r.id = su.rating_id
 join benches b on b.bk = ck % 2
 cross join lateral (select su.created_at + (ck * interval '1 hour' * 1.6) as t) tt;
