@@ -27,6 +27,8 @@ const SORT_COLUMNS = {
 /** One page of the captures the scope may see, with the headline numbers of each current analysis. */
 export async function listCapturePage(scope: Scope, filter: CaptureListFilter) {
   const where: SQL[] = [unitScopeWhere(scope)];
+  // A lab's captures carry its id too: filtering on it lets the (lab_id, created_at) index give the order.
+  if (scope.kind === "lab") where.push(eq(captures.labId, scope.labId));
   if (filter.search) where.push(ilike(units.serial, `%${filter.search.replace(/[%_\\]/g, "\\$&")}%`));
   if (filter.state) where.push(eq(captures.state, filter.state));
   if (filter.testKind) where.push(eq(captures.testKind, filter.testKind));

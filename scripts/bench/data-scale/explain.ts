@@ -24,7 +24,7 @@ const original = pg.Client.prototype.query as unknown as QueryFn;
 (pg.Client.prototype as unknown as { query: QueryFn }).query = async function (this: pg.Client, ...args: unknown[]) {
   const config = args[0] as { text?: string; values?: unknown[] } | string;
   const text = typeof config === "string" ? config : config.text ?? "";
-  const values = typeof config === "string" ? ((args[1] as unknown[]) ?? []) : config.values ?? [];
+  const values = (typeof config === "string" ? undefined : config.values) ?? (args[1] as unknown[] | undefined) ?? [];
   const started = performance.now();
   const result = await original.apply(this, args);
   if (/^\s*select/i.test(text)) sent.push({ text, values, ms: performance.now() - started, from: current });
@@ -38,8 +38,8 @@ async function ids() {
   const out = {
     lab: await one("select id from organisations where slug = 'harrowgate-lab'"),
     client: await one("select id from organisations where slug = 'kestrum'"),
-    unit: await one("select id from units where serial = 'SC005000'"),
-    rating: await one("select rating_id as id from units where serial = 'SC005000'"),
+    unit: await one("select id from units where serial = (select serial from units where serial like 'SC%' order by serial offset (select count(*) / 2 from units where serial like 'SC%') limit 1)"),
+    rating: await one("select rating_id as id from units where serial = (select serial from units where serial like 'SC%' order by serial offset (select count(*) / 2 from units where serial like 'SC%') limit 1)"),
   };
   await c.end();
   return out;

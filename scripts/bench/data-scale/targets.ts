@@ -12,7 +12,7 @@ export const ACCOUNTS: Record<Exclude<Who, "station">, string> = {
   client: "ruan.petit@kestrum.example",
 };
 
-/** Ids of a seeded unit (SC005000), its latest capture, its rating and an instrument, read from the scale database. */
+/** Ids of a seeded unit (the middle of the seeded serials, SC005001 at full size), its latest capture, its rating and an instrument, read from the scale database. */
 async function sampleIds() {
   const client = new pg.Client({ connectionString: getEnv().DATABASE_URL });
   await client.connect();
@@ -23,9 +23,9 @@ async function sampleIds() {
       return row.id;
     };
     return {
-      unit: await q("select id from units where serial = 'SC005000'"),
-      capture: await q("select c.id from captures c join units u on u.id = c.unit_id where u.serial = 'SC005000' order by c.created_at desc limit 1"),
-      rating: await q("select r.id from ratings r join units u on u.rating_id = r.id where u.serial = 'SC005000'"),
+      unit: await q("select id from units where serial = (select serial from units where serial like 'SC%' order by serial offset (select count(*) / 2 from units where serial like 'SC%') limit 1)"),
+      capture: await q("select c.id from captures c join units u on u.id = c.unit_id where u.serial = (select serial from units where serial like 'SC%' order by serial offset (select count(*) / 2 from units where serial like 'SC%') limit 1) order by c.created_at desc limit 1"),
+      rating: await q("select r.id from ratings r join units u on u.rating_id = r.id where u.serial = (select serial from units where serial like 'SC%' order by serial offset (select count(*) / 2 from units where serial like 'SC%') limit 1)"),
       instrument: await q("select id from instruments where asset_tag = 'HG-OSC-07'"),
       clientUnit: await q("select u.id from units u join organisations o on o.id = u.organisation_id where o.slug = 'kestrum' and u.serial like 'SC%' order by u.serial desc limit 1"),
     };
