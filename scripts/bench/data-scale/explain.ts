@@ -21,14 +21,20 @@ const sent: Sent[] = [];
 let current = "";
 type QueryFn = (this: pg.Client, ...args: unknown[]) => Promise<unknown>;
 const original = pg.Client.prototype.query as unknown as QueryFn;
-(pg.Client.prototype as unknown as { query: QueryFn }).query = async function (this: pg.Client, ...args: unknown[]) {
+(pg.Client.prototype as unknown as { query: QueryFn }).query = function (this: pg.Client, ...args: unknown[]) {
   const config = args[0] as { text?: string; values?: unknown[] } | string;
   const text = typeof config === "string" ? config : config.text ?? "";
-  const values = (typeof config === "string" ? undefined : config.values) ?? (args[1] as unknown[] | undefined) ?? [];
+  const values = (typeof config === "string" ? undefined : config.values) ?? (Array.isArray(args[1]) ? (args[1] as unknown[]) : []);
   const started = performance.now();
-  const result = await original.apply(this, args);
-  if (/^\s*select/i.test(text)) sent.push({ text, values, ms: performance.now() - started, from: current });
-  return result;
+  const note = () => { if (/^\s*select/i.test(text)) sent.push({ text, values, ms: performance.now() - started, from: current }); };
+  // The pool calls with a callback (no promise comes back); drizzle's own client calls without one.
+  const last = args.length - 1;
+  const callback = args[last];
+  if (typeof callback === "function") {
+    args[last] = (...result: unknown[]) => { note(); return (callback as (...r: unknown[]) => unknown)(...result); };
+    return original.apply(this, args);
+  }
+  return original.apply(this, args).then((result) => { note(); return result; });
 };
 
 async function ids() {
