@@ -11,7 +11,8 @@ const globalForDb = globalThis as unknown as { emfolioPool?: Pool; emfolioDb?: D
 export function getDb(): Db {
   if (globalForDb.emfolioDb) return globalForDb.emfolioDb;
   // A connect that hangs (an unreachable host) fails after 10 s, like a refused one, so callers can retry.
-  const pool = new Pool({ connectionString: getEnv().DATABASE_URL, max: 10, connectionTimeoutMillis: 10_000 });
+  // No JIT: these are short queries, and compiling a plan cost up to 2.7 s at a million captures.
+  const pool = new Pool({ connectionString: getEnv().DATABASE_URL, max: 10, connectionTimeoutMillis: 10_000, options: "-c jit=off" });
   pool.on("error", (err) => console.error("PostgreSQL pool error:", err.message));
   globalForDb.emfolioPool = pool;
   globalForDb.emfolioDb = drizzle(pool, { schema });

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, ilike, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, ilike, isNull, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, captures, units, type CaptureState } from "@/db/schema";
 import type { CaptureSort } from "@/lib/captures/list-query";
@@ -24,30 +24,49 @@ const SORT_COLUMNS = {
   ke: analyses.keLineRmsPerKrpm,
 } as const;
 
-/** One page of the captures the scope may see, with the headline numbers of each current analysis. */
+const columns = {
+  id: captures.id, serial: units.serial, unitId: units.id, testKind: captures.testKind, state: captures.state,
+  stateMessage: captures.stateMessage, progress: captures.progress, originalName: captures.originalName,
+  speedRpm: captures.speedRpm, createdAt: captures.createdAt, overall: analyses.overall,
+  frequencyHz: analyses.frequencyHz, worstThdPercent: analyses.worstThdPercent, vufPercent: analyses.vufPercent,
+  keLineRmsPerKrpm: analyses.keLineRmsPerKrpm,
+};
+const currentAnalysis = and(eq(analyses.captureId, captures.id), eq(analyses.current, true));
+
+/**
+ * One page of the captures the scope may see, with the headline numbers of each current analysis.
+ * Sorted on a figure, the judged captures come first through an inner join (so the figure's index gives
+ * the order; a left join made PostgreSQL sort every capture of the lab), then those without a current
+ * analysis, newest first.
+ */
 export async function listCapturePage(scope: Scope, filter: CaptureListFilter) {
   const where: SQL[] = [unitScopeWhere(scope)];
+  // A lab's captures carry its id too: filtering on it lets the (lab_id, created_at) index give the order.
+  if (scope.kind === "lab") where.push(eq(captures.labId, scope.labId));
   if (filter.search) where.push(ilike(units.serial, `%${filter.search.replace(/[%_\\]/g, "\\$&")}%`));
   if (filter.state) where.push(eq(captures.state, filter.state));
   if (filter.testKind) where.push(eq(captures.testKind, filter.testKind));
   if (filter.overall === "unjudged") where.push(sql`${analyses.overall} is null`);
   else if (filter.overall) where.push(eq(analyses.overall, filter.overall));
+  const newest = [desc(captures.createdAt), asc(captures.id)];
+  const db = getDb();
   const column = SORT_COLUMNS[filter.sort];
-  // Captures without the figure (not analysed, or no such metric) go last either way.
-  const order = filter.dir === "asc" ? sql`${column} asc nulls last` : sql`${column} desc nulls last`;
-  return getDb()
-    .select({
-      id: captures.id, serial: units.serial, unitId: units.id, testKind: captures.testKind, state: captures.state,
-      stateMessage: captures.stateMessage, progress: captures.progress, originalName: captures.originalName,
-      speedRpm: captures.speedRpm, createdAt: captures.createdAt, overall: analyses.overall,
-      frequencyHz: analyses.frequencyHz, worstThdPercent: analyses.worstThdPercent, vufPercent: analyses.vufPercent,
-      keLineRmsPerKrpm: analyses.keLineRmsPerKrpm,
-    })
-    .from(captures)
-    .innerJoin(units, eq(units.id, captures.unitId))
-    .leftJoin(analyses, and(eq(analyses.captureId, captures.id), eq(analyses.current, true)))
-    .where(and(...where))
-    .orderBy(order, desc(captures.createdAt), asc(captures.id))
-    .limit(filter.limit)
-    .offset(filter.offset);
+  // Captures without the figure go last either way.
+  const order = filter.sort === "captured" ? (filter.dir === "asc" ? asc(captures.createdAt) : desc(captures.createdAt))
+    : filter.dir === "asc" ? sql`${column} asc nulls last` : sql`${column} desc nulls last`;
+  if (filter.sort === "captured" || filter.overall === "unjudged") {
+    return db.select(columns).from(captures).innerJoin(units, eq(units.id, captures.unitId)).leftJoin(analyses, currentAnalysis)
+      .where(and(...where)).orderBy(order, ...newest).limit(filter.limit).offset(filter.offset);
+  }
+  const judged = await db.select(columns).from(captures).innerJoin(units, eq(units.id, captures.unitId))
+    .innerJoin(analyses, currentAnalysis).where(and(...where)).orderBy(order, ...newest).limit(filter.limit).offset(filter.offset);
+  // A verdict filter has only judged captures; otherwise the unjudged follow, where the judged end.
+  if (judged.length === filter.limit || filter.overall) return judged;
+  const judgedTotal = judged.length > 0 || filter.offset === 0 ? filter.offset + judged.length
+    : Number((await db.select({ n: sql<number>`count(*)` }).from(captures).innerJoin(units, eq(units.id, captures.unitId))
+      .innerJoin(analyses, currentAnalysis).where(and(...where)))[0]?.n ?? 0);
+  const rest = await db.select(columns).from(captures).innerJoin(units, eq(units.id, captures.unitId)).leftJoin(analyses, currentAnalysis)
+    .where(and(...where, isNull(analyses.id))).orderBy(...newest)
+    .limit(filter.limit - judged.length).offset(Math.max(0, filter.offset - judgedTotal));
+  return [...judged, ...rest];
 }

@@ -37,14 +37,24 @@ export async function getLabRating(labId: string, ratingId: string) {
   return row;
 }
 
-/** Figures the rating's current analyses carry, with how many units have each. */
-export async function listTrendFigures(labId: string, ratingId: string) {
-  return getDb()
-    .select({ figure: analysisFigures.figure, harmonicOrder: analysisFigures.harmonicOrder, units: sql<number>`count(distinct ${analysisFigures.unitId})`.mapWith(Number) })
-    .from(analysisFigures)
-    .where(and(eq(analysisFigures.labId, labId), eq(analysisFigures.ratingId, ratingId), eq(analysisFigures.current, true)))
-    .groupBy(analysisFigures.figure, analysisFigures.harmonicOrder)
-    .orderBy(asc(analysisFigures.figure), asc(analysisFigures.harmonicOrder));
+/**
+ * The figures (and harmonic orders) the rating's current analyses carry. A skip scan over the trend
+ * index, one probe per distinct pair: a rating can have hundreds of thousands of figure rows.
+ */
+export async function listTrendFigures(labId: string, ratingId: string): Promise<{ figure: string; harmonicOrder: number }[]> {
+  const f = analysisFigures;
+  const result = await getDb().execute<{ figure: string; harmonic_order: number }>(sql`
+    with recursive pairs as (
+      (select ${f.figure} as figure, ${f.harmonicOrder} as harmonic_order from ${f}
+        where ${f.ratingId} = ${ratingId} and ${f.current} and ${f.labId} = ${labId} order by ${f.figure}, ${f.harmonicOrder} limit 1)
+      union all
+      select n.figure, n.harmonic_order from pairs p cross join lateral (
+        select ${f.figure} as figure, ${f.harmonicOrder} as harmonic_order from ${f}
+        where ${f.ratingId} = ${ratingId} and ${f.current} and ${f.labId} = ${labId} and (${f.figure}, ${f.harmonicOrder}) > (p.figure, p.harmonic_order)
+        order by ${f.figure}, ${f.harmonicOrder} limit 1) n
+    )
+    select figure, harmonic_order from pairs`);
+  return result.rows.map((r) => ({ figure: r.figure, harmonicOrder: Number(r.harmonic_order) }));
 }
 
 /**

@@ -60,11 +60,17 @@ const queueRank = sql<number>`case
   when ${units.latestOverall} = 'marginal' then 2
   else 3 end`.mapWith(Number);
 
+const reviewQueueWhere = (scope: Scope) => and(
+  unitScopeWhere(scope), eq(units.disposition, "open"), isNull(units.retiredAt),
+  or(isNotNull(units.latestOverall), inArray(units.planState, ["failed", "inconclusive"])),
+);
+
 /**
  * Open units with a judged capture, waiting for a disposition: outside first, then inconclusive, then
  * marginal, then the rest; within each, the oldest latest capture first. With who each is assigned to.
+ * One page of them (a lab can have thousands waiting).
  */
-export async function listReviewQueue(scope: Scope, limit = 200) {
+export async function listReviewQueue(scope: Scope, page: { limit: number; offset: number } = { limit: 200, offset: 0 }) {
   const assignee = sql<string | null>`(select ${users.name} from ${users} where ${users.id} = ${unitAssignments.assigneeId})`;
   return getDb()
     .select({
@@ -76,10 +82,15 @@ export async function listReviewQueue(scope: Scope, limit = 200) {
     .innerJoin(ratings, eq(ratings.id, units.ratingId))
     .innerJoin(organisations, eq(organisations.id, units.organisationId))
     .leftJoin(unitAssignments, eq(unitAssignments.unitId, units.id))
-    .where(and(
-      unitScopeWhere(scope), eq(units.disposition, "open"), isNull(units.retiredAt),
-      or(isNotNull(units.latestOverall), inArray(units.planState, ["failed", "inconclusive"])),
-    ))
+    .where(reviewQueueWhere(scope))
     .orderBy(queueRank, asc(units.latestCaptureAt), asc(units.serial))
-    .limit(limit);
+    .limit(page.limit)
+    .offset(page.offset);
+}
+
+/** How many units wait for review, counted up to `cap` (the page says "more than" past it). */
+export async function countReviewQueue(scope: Scope, cap: number): Promise<number> {
+  const inner = getDb().select({ one: sql`1` }).from(units).where(reviewQueueWhere(scope)).limit(cap + 1).as("waiting");
+  const [row] = await getDb().select({ n: sql<number>`count(*)`.mapWith(Number) }).from(inner);
+  return row?.n ?? 0;
 }

@@ -221,6 +221,8 @@ export const captures = pgTable(
     index("captures_lab_created_idx").on(t.labId, t.createdAt),
     index("captures_state_idx").on(t.state, t.updatedAt),
     index("captures_unit_idx").on(t.unitId, t.createdAt),
+    // A client's captures list, newest first, across the units it owns (no lab column to narrow on).
+    index("captures_created_idx").on(t.createdAt),
   ],
 );
 

@@ -1,9 +1,9 @@
 import "server-only";
 import { z } from "zod";
 import { listActivePlanSteps } from "@/db/queries/judgement";
-import { listCurrentVerdicts } from "@/db/queries/review-checks";
+import { listLatestVerdicts, listVerdictsOfCaptures } from "@/db/queries/review-checks";
 import { assignUnits, listReviewers } from "@/db/queries/unit-assignments";
-import { listReviewQueue, listUnitEvents } from "@/db/queries/unit-events";
+import { countReviewQueue, listReviewQueue, listUnitEvents } from "@/db/queries/unit-events";
 import { evaluateUnitPlan } from "@/db/queries/unit-plan";
 import { HttpError } from "@/lib/auth/guards";
 import { findingsOf, type CheckFinding, type JudgedCheck } from "@/lib/units/check-exceedance";
@@ -21,31 +21,44 @@ function requireReviewer(actor: Actor): { scope: LabScope; userId: string } {
 
 export type QueueFinding = CheckFinding & { step: string | null };
 
+/** Units per page of the review queue, and how far its count goes before it says "more than". */
+export const REVIEW_PAGE_SIZE = 50;
+export const REVIEW_COUNT_CAP = 10_000;
+export const reviewPageSchema = z.coerce.number().int().min(1).max(1000).catch(1);
+
 /**
- * Open units waiting for a disposition, outside first then oldest (the order of listReviewQueue), each
- * with the failing or inconclusive checks of its plan records (or of its latest capture where the
- * rating has no plan), the plan steps still missing and who it is assigned to.
+ * One page of the open units waiting for a disposition, outside first then oldest (the order of
+ * listReviewQueue), each with the failing or inconclusive checks of its plan records (or of its latest
+ * capture where the rating has no plan), the plan steps still missing and who it is assigned to.
  */
-export async function getReviewQueueView(actor: Actor) {
+export async function getReviewQueueView(actor: Actor, page = 1) {
   const { scope, userId } = requireReviewer(actor);
-  const [rows, reviewers] = await Promise.all([listReviewQueue(scope), listReviewers(scope)]);
-  const verdicts = await listCurrentVerdicts(scope, rows.map((r) => r.id));
-  const units = await Promise.all(rows.map(async (row) => {
+  const [rows, reviewers, waiting] = await Promise.all([
+    listReviewQueue(scope, { limit: REVIEW_PAGE_SIZE + 1, offset: (page - 1) * REVIEW_PAGE_SIZE }), listReviewers(scope), countReviewQueue(scope, REVIEW_COUNT_CAP),
+  ]);
+  const shown = rows.slice(0, REVIEW_PAGE_SIZE);
+  const evaluated = await Promise.all(shown.map(async (row) => {
     const evaluation = await evaluateUnitPlan(scope, row.id);
     const steps = evaluation ? await listActivePlanSteps(evaluation.ratingId) : [];
+    return { row, evaluation, steps };
+  }));
+  // Verdicts of just the captures shown: the records of failing or inconclusive steps, else the latest.
+  const recordIds = evaluated.flatMap(({ evaluation, steps }) => (steps.length === 0 ? [] : (evaluation?.steps ?? [])
+    .filter((s) => s.status === "failed" || s.status === "inconclusive").flatMap((s) => (s.record ? [s.record.captureId] : []))));
+  const planless = evaluated.filter((e) => e.steps.length === 0).map((e) => e.row.id);
+  const [recorded, latest] = await Promise.all([listVerdictsOfCaptures(scope, recordIds), listLatestVerdicts(scope, planless)]);
+  const verdicts = [...recorded, ...latest];
+  const units = evaluated.map(({ row, evaluation, steps }) => {
     const stepName = new Map(steps.map((s) => [s.id, s.name]));
-    const mine = verdicts.filter((v) => v.unitId === row.id);
-    const evaluated = evaluation?.steps ?? [];
-    const recordIds = evaluated.filter((s) => s.status === "failed" || s.status === "inconclusive").flatMap((s) => (s.record ? [s.record.captureId] : []));
-    const sources = steps.length > 0 ? mine.filter((v) => recordIds.includes(v.captureId)) : mine.slice(0, 1);
+    const sources = verdicts.filter((v) => v.unitId === row.id);
     const findings: QueueFinding[] = sources.flatMap((v) => {
       const checks = Array.isArray(v.verdicts) ? (v.verdicts as JudgedCheck[]) : [];
       return findingsOf(checks).map((f) => ({ ...f, step: v.planStepId ? stepName.get(v.planStepId) ?? null : null }));
     });
-    const missingSteps = evaluated.filter((s) => s.status === "missing").map((s) => stepName.get(s.stepId) ?? "a plan step");
+    const missingSteps = (evaluation?.steps ?? []).filter((s) => s.status === "missing").map((s) => stepName.get(s.stepId) ?? "a plan step");
     return { ...row, findings, missingSteps, mine: row.assigneeId === userId };
-  }));
-  return { units, reviewers, me: userId };
+  });
+  return { units, reviewers, me: userId, page, hasMore: rows.length > REVIEW_PAGE_SIZE, waiting, waitingCapped: waiting > REVIEW_COUNT_CAP };
 }
 
 export const assignSchema = z.object({

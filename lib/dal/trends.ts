@@ -16,7 +16,7 @@ export type { TrendPoint };
 export type TrendView = {
   ratings: { id: string; modelCode: string; title: string; unitCount: number }[];
   rating: { id: string; modelCode: string; title: string } | null;
-  figures: { figure: string; harmonicOrder: number; units: number }[];
+  figures: { figure: string; harmonicOrder: number }[];
   label: string;
   band: TrendBand | null;
   /** Points with a value, in x order: those in the statistics and those flagged. */

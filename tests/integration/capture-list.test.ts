@@ -74,6 +74,14 @@ describe("listCapturePage", () => {
     expect(names(await listCapturePage(lab(), { ...base, limit: 2, offset: 2 }))).toEqual([`${tag}-2.csv`, `${tag}-1.csv`]);
   });
 
+  it("pages a figure sort across the end of the judged captures into the unjudged, newest first", async () => {
+    const page = (offset: number) => listCapturePage(lab(), { ...base, sort: "thd", dir: "desc", limit: 2, offset }).then(names);
+    expect(await page(0)).toEqual([`${tag}-1.csv`, `${tag}-2.csv`]);
+    expect(await page(2)).toEqual([`${tag}-0.csv`, `${tag}-4.csv`]);
+    expect(await page(4)).toEqual([`${tag}-3.csv`]);
+    expect(await page(6)).toEqual([]);
+  });
+
   it("shows a client its own units' captures and nothing of another client", async () => {
     expect(await listCapturePage({ kind: "manufacturer", organisationId: kestrumId }, base)).toHaveLength(5);
     expect(await listCapturePage({ kind: "manufacturer", organisationId: poldaneId }, base)).toHaveLength(0);

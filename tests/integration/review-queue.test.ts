@@ -3,7 +3,7 @@ import type { SessionUser } from "@/lib/auth/options";
 import ReviewPage from "@/app/(app)/review/page";
 import { actOnQueue } from "@/app/(app)/review/actions";
 import { actorForStoredUser, type Actor } from "@/lib/dal/actor";
-import { assignForReview, getReviewQueueView } from "@/lib/dal/review";
+import { assignForReview, getReviewQueueView, REVIEW_PAGE_SIZE } from "@/lib/dal/review";
 import { seededOrgs } from "./helpers";
 import { closeConnections } from "./pipeline-support";
 import { makeAnalysedCapture, makeSigner, makeUnit, seededRating, type StoredVerdict } from "./dispositions-support";
@@ -117,6 +117,16 @@ describe("assignForReview and the queue's actions", () => {
 
   it("ReviewPage renders for a quality engineer", async () => {
     session.current = qaUser;
-    expect(await ReviewPage()).toBeTruthy();
+    expect(await ReviewPage({ searchParams: Promise.resolve({ page: "2" }) })).toBeTruthy();
+  });
+
+  it("getReviewQueueView shows one page of at most REVIEW_PAGE_SIZE units and counts every waiting unit", async () => {
+    const first = await getReviewQueueView(qa, 1);
+    expect(first.units.length).toBe(Math.min(first.waiting, REVIEW_PAGE_SIZE));
+    expect(first.hasMore).toBe(first.waiting > REVIEW_PAGE_SIZE);
+    const beyond = await getReviewQueueView(qa, Math.ceil(first.waiting / REVIEW_PAGE_SIZE) + 1);
+    expect(beyond.units).toEqual([]);
+    expect(beyond.hasMore).toBe(false);
+    expect(beyond.waiting).toBe(first.waiting);
   });
 });

@@ -1,0 +1,1 @@
+CREATE INDEX "captures_created_idx" ON "captures" USING btree ("created_at");
