@@ -17,8 +17,9 @@ let store: ChildProcess;
 let client: S3Client;
 let log = "";
 
-function startStore(): Promise<number> {
-  store = spawn(process.execPath, ["--import", "tsx", "scripts/services/s3-server.ts", "--port", "0", "--dir", path.join(dir, "s3"), "--secret-file", path.join(dir, "secret"), "--bucket", "quota", "--quota-bytes", String(QUOTA)], {
+function startStore(args = ["--dir", path.join(dir, "s3"), "--quota-bytes", String(QUOTA)]): Promise<number> {
+  log = "";
+  store = spawn(process.execPath, ["--import", "tsx", "scripts/services/s3-server.ts", "--port", "0", "--secret-file", path.join(dir, "secret"), "--bucket", "quota", ...args], {
     env: bareChildEnv({ NODE_OPTIONS: "--openssl-legacy-provider" }), stdio: ["ignore", "pipe", "pipe"],
   });
   return new Promise((resolve, reject) => {
@@ -52,7 +53,19 @@ afterAll(() => {
   rmSync(dir, { recursive: true, force: true });
 });
 
-const put = (Key: string, bytes: number) => client.send(new PutObjectCommand({ Bucket: "quota", Key, Body: Buffer.alloc(bytes, 97), ContentLength: bytes }));
+const put = (Key: string, bytes: number, to = client) => to.send(new PutObjectCommand({ Bucket: "quota", Key, Body: Buffer.alloc(bytes, 97), ContentLength: bytes }));
+
+/** A 2 MiB tmpfs (a real full disk), where this machine lets the test mount one (root, a kernel that allows it). */
+function smallDisk(): string | null {
+  const at = mkdtempSync(path.join(tmpdir(), "emfolio-full-disk-"));
+  try {
+    execFileSync("mount", ["-t", "tmpfs", "-o", "size=2m", "tmpfs", at], { stdio: "ignore" });
+    return at;
+  } catch {
+    rmSync(at, { recursive: true, force: true });
+    return null;
+  }
+}
 
 describe("scripts/services/s3-server.ts on a full disk", () => {
   it("s3-server --quota-bytes answers 507 with a sentence when a write would not fit, stores nothing of it, and keeps serving", async () => {
@@ -66,6 +79,37 @@ describe("scripts/services/s3-server.ts on a full disk", () => {
     const first = await client.send(new GetObjectCommand({ Bucket: "quota", Key: "first.csv" }));
     expect((await first.Body!.transformToByteArray()).length).toBe(1000);
     await put("small.csv", 500);
+  });
+});
+
+describe("scripts/services/s3-server.ts on a disk that is really full (ENOSPC)", () => {
+  const disk = smallDisk();
+  afterAll(() => {
+    if (!disk) return;
+    try { execFileSync("umount", [disk], { stdio: "ignore" }); } catch { /* already gone */ }
+    rmSync(disk, { recursive: true, force: true });
+  });
+  it.skipIf(disk === null)("a write larger than the disk answers 507 with a sentence, the store stays up and serves what it holds", async () => {
+    const first = store;
+    const port = await startStore(["--dir", path.join(disk as string, "s3"), "--spool-dir", path.join(disk as string, "spool")]);
+    const full = new S3Client({
+      endpoint: `http://127.0.0.1:${port}`, region: "us-east-1", forcePathStyle: true, credentials: { accessKeyId: "S3RVER", secretAccessKey: SECRET },
+      requestChecksumCalculation: "WHEN_REQUIRED", responseChecksumValidation: "WHEN_REQUIRED",
+    });
+    try {
+      await put("kept.csv", 4000, full);
+      const refused = await put("too-big.csv", 3 * 1024 * 1024, full).then(() => null, (e: { name?: string; message?: string; $metadata?: { httpStatusCode?: number } }) => e);
+      expect(refused?.$metadata?.httpStatusCode, log).toBe(507);
+      expect(refused?.message).toMatch(/disk is full/);
+      expect(store.exitCode).toBeNull();
+      const kept = await full.send(new GetObjectCommand({ Bucket: "quota", Key: "kept.csv" }));
+      expect((await kept.Body!.transformToByteArray()).length).toBe(4000);
+      await expect(full.send(new GetObjectCommand({ Bucket: "quota", Key: "too-big.csv" }))).rejects.toMatchObject({ name: "NoSuchKey" });
+    } finally {
+      store.kill("SIGTERM");
+      await new Promise((r) => (store.exitCode !== null ? r(null) : store.once("exit", r)));
+      store = first;
+    }
   });
 });
 
