@@ -33,6 +33,8 @@ async function proxied(url: string): Promise<{ proxy: TcpProxy; url: string }> {
   return { proxy, url: proxy.url(url) };
 }
 
+// Earlier files leave captures queued with no worker of their own; this file's worker (and its sweep)
+// takes them first, so the waits below allow for that backlog on a loaded machine.
 describe("worker outages: the capture waits, then is analysed, without spending an attempt", () => {
   it("runAnalysis with PostgreSQL unreachable for 6 s → the job rides it out and the capture ends analysed on its first attempt", async () => {
     const db = await proxied(getEnv().DATABASE_URL);
@@ -44,7 +46,7 @@ describe("worker outages: the capture waits, then is analysed, without spending 
       await new Promise((r) => setTimeout(r, 6_000));
       expect((await waitForState(labId, id, ["queued"], 1_000)).state).toBe("queued");
       await db.proxy.restore();
-      const done = await waitForState(labId, id, ["analysed", "failed", "rejected"], 40_000);
+      const done = await waitForState(labId, id, ["analysed", "failed", "rejected"], 150_000);
       expect(done.state, `${done.stateMessage}\n${worker.output()}`).toBe("analysed");
       // One claim: the outage spent no attempt (a spent one would have claimed it again).
       expect(done.attempts).toBe(1);
@@ -54,7 +56,7 @@ describe("worker outages: the capture waits, then is analysed, without spending 
       await db.proxy.restore().catch(() => undefined);
       await worker.stop();
     }
-  }, 90_000);
+  }, 300_000);
 
   it("runAnalysis with the object store unreachable → the page says so in a sentence, and the capture is analysed once it is back", async () => {
     const s3 = await proxied(getEnv().S3_ENDPOINT);
@@ -62,7 +64,7 @@ describe("worker outages: the capture waits, then is analysed, without spending 
     try {
       await s3.proxy.cut();
       const { id } = await uploadViaApi(token, makeThreePhaseCsv({ variant: run + 2 }), { unitSerial: "KG45-260307" });
-      const until = Date.now() + 20_000;
+      const until = Date.now() + 90_000;
       let waiting = await waitForState(labId, id, ["queued", "analysing"], 1_000);
       while (!waiting.stateMessage && Date.now() < until) {
         await new Promise((r) => setTimeout(r, 200));
@@ -70,7 +72,7 @@ describe("worker outages: the capture waits, then is analysed, without spending 
       }
       expect(waiting.stateMessage).toBe("The file store was unreachable; the analysis will be retried.");
       await s3.proxy.restore();
-      const done = await waitForState(labId, id, ["analysed", "failed", "rejected"], 40_000);
+      const done = await waitForState(labId, id, ["analysed", "failed", "rejected"], 150_000);
       expect(done.state, `${done.stateMessage}\n${worker.output()}`).toBe("analysed");
       expect(done.stateMessage).toBeNull();
       expect(done.attempts).toBe(1);
@@ -79,7 +81,7 @@ describe("worker outages: the capture waits, then is analysed, without spending 
       await s3.proxy.restore().catch(() => undefined);
       await worker.stop();
     }
-  }, 90_000);
+  }, 300_000);
 
   it("a database error that is not an outage is retried as a genuine failure, its stateMessage a sentence: no SQL, host, port or stack", async () => {
     // The forced error: PostgreSQL refuses to store this run's analyses (a genuine error, not a lost connection).
@@ -108,5 +110,5 @@ describe("worker outages: the capture waits, then is analysed, without spending 
       await getDb().execute(sql`drop trigger if exists emfolio_test_refuse_analysis on analyses`);
       await worker.stop();
     }
-  }, 90_000);
+  }, 300_000);
 });
