@@ -110,11 +110,30 @@ async function handle(opts: GateOptions, req: IncomingMessage, res: ServerRespon
   }
 }
 
+/**
+ * Runs `answer` once the request's body has been read (discarded), or after a few seconds: a
+ * refusal sent while the client is still writing its body would reach it as EPIPE, not as the answer.
+ */
+function afterBody(req: IncomingMessage, answer: () => void): void {
+  let done = false;
+  const once = (): void => {
+    if (done) return;
+    done = true;
+    clearTimeout(timer);
+    answer();
+  };
+  const timer = setTimeout(once, 5_000);
+  if (req.complete) return once();
+  req.once("end", once);
+  req.once("error", once);
+  req.once("close", once);
+  req.resume();
+}
+
 export function createGate(opts: GateOptions): http.Server {
   const server = http.createServer((req, res) => {
-    handle(opts, req, res).catch((err: unknown) => {
+    handle(opts, req, res).catch((err: unknown) => afterBody(req, () => {
       const cors = corsHeaders(req.headers.origin, opts.origins);
-      req.resume();
       if (err instanceof SignatureError || err instanceof S3Failure) {
         opts.log(`${req.method} ${(req.url ?? "").split("?")[0]}: ${err.status} ${err.code}`);
         sendError(res, err.status, err.code, err.message, cors);
@@ -125,7 +144,7 @@ export function createGate(opts: GateOptions): http.Server {
         opts.log(`${req.method} ${(req.url ?? "").split("?")[0]}: internal error ${err instanceof Error ? err.stack : String(err)}`);
         sendError(res, 500, "InternalError", "The store failed to handle the request; nothing was stored", cors);
       }
-    });
+    }));
   });
   server.requestTimeout = 10 * 60 * 1000;
   server.headersTimeout = 60 * 1000;
