@@ -24,7 +24,7 @@ export async function recordAnalysis(scope: Scope, input: NewAnalysis): Promise<
     if (!capture) return false;
     await tx.update(analyses).set({ current: false }).where(and(eq(analyses.captureId, input.captureId), eq(analyses.current, true)));
     const [stored] = await tx.insert(analyses).values({ ...input, current: true }).returning({ id: analyses.id });
-    if (stored) await writeFigureRows(tx, stored.id, input.captureId, input.report);
+    if (stored) await writeFigureRows(tx, { id: stored.id, captureId: input.captureId, planStepId: input.planStepId ?? null, report: input.report });
     await tx
       .update(units)
       .set({ latestOverall: input.overall ?? null, latestCaptureAt: capture.createdAt })
@@ -81,7 +81,7 @@ export async function recordRejudgement(scope: Scope, input: NewAnalysis): Promi
     if (!capture) return false;
     await tx.update(analyses).set({ current: false }).where(and(eq(analyses.captureId, input.captureId), eq(analyses.current, true)));
     const [stored] = await tx.insert(analyses).values({ ...input, current: true, kind: "rejudge" }).returning({ id: analyses.id });
-    if (stored) await writeFigureRows(tx, stored.id, input.captureId, input.report);
+    if (stored) await writeFigureRows(tx, { id: stored.id, captureId: input.captureId, planStepId: input.planStepId ?? null, report: input.report });
     await tx.update(units).set({ latestOverall: input.overall ?? null }).where(
       and(eq(units.id, capture.unitId), unitScopeWhere(scope), sql`${units.latestCaptureAt} = ${capture.createdAt.toISOString()}`),
     );

@@ -14,14 +14,15 @@ type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
  * report that does not parse gets no rows (it cannot be trended) rather than failing the store.
  * `expanded_uncertainty` is the verdict's expanded uncertainty (k = 2) where the budget was evaluated.
  */
-export async function writeFigureRows(tx: Tx, analysisId: string, captureId: string, report: unknown): Promise<number> {
+export async function writeFigureRows(tx: Tx, analysis: { id: string; captureId: string; planStepId: string | null; report: unknown }): Promise<number> {
+  const { id: analysisId, captureId, planStepId, report } = analysis;
   await tx.update(analysisFigures).set({ current: false }).where(and(eq(analysisFigures.captureId, captureId), eq(analysisFigures.current, true)));
   const parsed = analysisReportSchema.safeParse(report);
   if (!parsed.success) return 0;
   const [owner] = await tx.select({ unitId: units.id, ratingId: units.ratingId, labId: captures.labId, measuredAt: captures.createdAt })
     .from(captures).innerJoin(units, eq(units.id, captures.unitId)).where(eq(captures.id, captureId)).limit(1);
   if (!owner) return 0;
-  const rows = figureRowsOf(parsed.data).map((r) => ({ ...r, ...owner, analysisId, captureId, current: true }));
+  const rows = figureRowsOf(parsed.data).map((r) => ({ ...r, ...owner, analysisId, captureId, planStepId, current: true }));
   if (rows.length > 0) await tx.insert(analysisFigures).values(rows).onConflictDoNothing();
   return rows.length;
 }
@@ -36,13 +37,13 @@ export async function backfillAnalysisFigures(batchSize = 200): Promise<{ analys
   // Keyset over ids: a report that yields no rows is not picked up again in the same run.
   let after: string | null = null;
   for (;;) {
-    const batch: { id: string; captureId: string; report: unknown }[] = await getDb()
-      .select({ id: analyses.id, captureId: analyses.captureId, report: analyses.report }).from(analyses)
+    const batch: { id: string; captureId: string; planStepId: string | null; report: unknown }[] = await getDb()
+      .select({ id: analyses.id, captureId: analyses.captureId, planStepId: analyses.planStepId, report: analyses.report }).from(analyses)
       .where(and(eq(analyses.current, true), sql`not exists (select 1 from ${analysisFigures} f where f.analysis_id = ${analyses.id})`,
         after !== null ? sql`${analyses.id} > ${after}` : undefined))
       .orderBy(analyses.id).limit(batchSize);
     for (const row of batch) {
-      written += await getDb().transaction((tx) => writeFigureRows(tx, row.id, row.captureId, row.report));
+      written += await getDb().transaction((tx) => writeFigureRows(tx, row));
       after = row.id;
       done++;
     }

@@ -1,7 +1,8 @@
-import { and, asc, desc, eq, gte, isNull, lt, sql } from "drizzle-orm";
+import { and, asc, eq, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import {
-  analyses, analysisFigures, captureInstruments, captures, instruments, organisations, planSteps, ratings, stations, stepRecords, testKind, units,
+  analysisFigures, captureInstruments, captures, instruments, organisations, planSteps, ratings, stations, stepRecords, testKind, units,
+  type AnalysisFigure, type Capture,
 } from "@/db/schema";
 import { unitScopeWhere } from "./scope";
 
@@ -61,39 +62,55 @@ export async function listTrendFigures(labId: string, ratingId: string): Promise
  * The figure of record of each unit: the capture a quality engineer chose for a plan step that
  * judges the check, else the latest capture judged for such a step, else the latest valid capture
  * (a value, not flagged), else the latest one. Filters narrow the captures before the pick.
+ *
+ * The pick reads one range of analysis_figures_record_idx (every column it needs is in the index, and
+ * the step a row was judged for is on the row); the few picked rows are then joined for their names.
  */
 export async function listFigureOfRecord(labId: string, key: TrendSeriesKey, filters: TrendFilters, limit = 5000) {
   const f = analysisFigures;
-  const chosen = sql`(${stepRecords.captureId} = ${f.captureId}) is true`;
-  const inStep = sql`(${planSteps.checks} @> ${JSON.stringify([key.check])}::jsonb) is true`;
-  const valid = sql`(${f.value} is not null and not ${f.flagged})`;
-  return getDb()
-    .selectDistinctOn([f.unitId], {
-      unitId: f.unitId, serial: units.serial, captureId: f.captureId, measuredAt: f.measuredAt, value: f.value, status: f.status, flagged: f.flagged,
-      expandedUncertainty: f.expandedUncertainty, testKind: captures.testKind, stationName: stations.name, clientName: organisations.name,
-      fromStep: inStep.mapWith(Boolean),
-    })
-    .from(f)
-    .innerJoin(units, eq(units.id, f.unitId))
-    .innerJoin(captures, eq(captures.id, f.captureId))
-    .innerJoin(analyses, eq(analyses.id, f.analysisId))
-    .innerJoin(organisations, eq(organisations.id, units.organisationId))
-    .leftJoin(stations, eq(stations.id, captures.stationId))
-    .leftJoin(stepRecords, and(eq(stepRecords.unitId, f.unitId), eq(stepRecords.planStepId, analyses.planStepId)))
-    .leftJoin(planSteps, and(eq(planSteps.id, analyses.planStepId), isNull(planSteps.retiredAt)))
-    .where(and(
-      eq(f.labId, labId), eq(units.labId, labId), eq(f.ratingId, key.ratingId), eq(f.figure, key.figure), eq(f.harmonicOrder, key.harmonicOrder), eq(f.current, true),
-      filters.from ? gte(f.measuredAt, filters.from) : undefined,
-      filters.to ? lt(f.measuredAt, filters.to) : undefined,
-      filters.clientId ? eq(units.organisationId, filters.clientId) : undefined,
-      filters.testKind ? eq(captures.testKind, filters.testKind) : undefined,
-      filters.stationId ? eq(captures.stationId, filters.stationId) : undefined,
-      filters.instrumentId
-        ? sql`exists (select 1 from ${captureInstruments} ci where ci.capture_id = ${f.captureId} and ci.instrument_id = ${filters.instrumentId})`
-        : undefined,
-    ))
-    .orderBy(f.unitId, desc(chosen), desc(inStep), desc(valid), desc(f.measuredAt))
-    .limit(limit);
+  const fromStep = sql`(${f.planStepId} in (select id from steps)) is true`;
+  const needsCapture = Boolean(filters.testKind || filters.stationId);
+  const filtersSql = [
+    filters.from ? sql` and ${f.measuredAt} >= ${filters.from.toISOString()}` : sql``,
+    filters.to ? sql` and ${f.measuredAt} < ${filters.to.toISOString()}` : sql``,
+    filters.clientId ? sql` and ${f.unitId} in (select ${units.id} from ${units} where ${units.ratingId} = ${key.ratingId} and ${units.organisationId} = ${filters.clientId})` : sql``,
+    filters.testKind ? sql` and fc.test_kind = ${filters.testKind}` : sql``,
+    filters.stationId ? sql` and fc.station_id = ${filters.stationId}` : sql``,
+    filters.instrumentId
+      ? sql` and exists (select 1 from ${captureInstruments} ci where ci.capture_id = ${f.captureId} and ci.instrument_id = ${filters.instrumentId})`
+      : sql``,
+  ];
+  const result = await getDb().execute<{
+    unit_id: string; serial: string; capture_id: string; measured_at: string | Date; value: number | null; status: AnalysisFigure["status"]; flagged: boolean;
+    expanded_uncertainty: number | null; test_kind: Capture["testKind"]; station_name: string | null; client_name: string; from_step: boolean;
+  }>(sql`
+    with steps as (
+      select ${planSteps.id} as id from ${planSteps}
+      where ${planSteps.ratingId} = ${key.ratingId} and ${planSteps.retiredAt} is null and ${planSteps.checks} @> ${JSON.stringify([key.check])}::jsonb
+    ),
+    picked as (
+      select distinct on (${f.unitId}) ${f.unitId} as unit_id, ${f.captureId} as capture_id, ${f.measuredAt} as measured_at, ${f.value} as value,
+        ${f.status} as status, ${f.flagged} as flagged, ${f.expandedUncertainty} as expanded_uncertainty,
+        ${fromStep} as from_step
+      from ${f}
+      ${needsCapture ? sql`join ${captures} fc on fc.id = ${f.captureId}` : sql``}
+      left join ${stepRecords} sr on sr.unit_id = ${f.unitId} and sr.plan_step_id = ${f.planStepId} and sr.capture_id = ${f.captureId}
+      where ${f.ratingId} = ${key.ratingId} and ${f.figure} = ${key.figure} and ${f.harmonicOrder} = ${key.harmonicOrder} and ${f.current}
+        and ${f.labId} = ${labId}${sql.join(filtersSql)}
+      order by ${f.unitId}, (sr.capture_id is not null) desc, ${fromStep} desc, (${f.value} is not null and not ${f.flagged}) desc, ${f.measuredAt} desc
+      limit ${limit}
+    )
+    select p.*, u.serial, c.test_kind, st.name as station_name, o.name as client_name
+    from picked p
+    join ${units} u on u.id = p.unit_id and u.lab_id = ${labId}
+    join ${captures} c on c.id = p.capture_id
+    join ${organisations} o on o.id = u.organisation_id
+    left join ${stations} st on st.id = c.station_id`);
+  return result.rows.map((r) => ({
+    unitId: r.unit_id, serial: r.serial, captureId: r.capture_id, measuredAt: new Date(r.measured_at), value: r.value === null ? null : Number(r.value),
+    status: r.status, flagged: r.flagged, expandedUncertainty: r.expanded_uncertainty === null ? null : Number(r.expanded_uncertainty),
+    testKind: r.test_kind, stationName: r.station_name, clientName: r.client_name, fromStep: r.from_step,
+  }));
 }
 
 /** What the filters offer: the rating's clients, the lab's benches and instruments. */

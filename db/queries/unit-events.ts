@@ -75,7 +75,7 @@ export async function listReviewQueue(scope: Scope, page: { limit: number; offse
   return getDb()
     .select({
       id: units.id, serial: units.serial, latestOverall: units.latestOverall, latestCaptureAt: units.latestCaptureAt, planState: units.planState,
-      disposition: units.disposition, modelCode: ratings.modelCode, owner: organisations.name, rank: queueRank,
+      disposition: units.disposition, ratingId: units.ratingId, planStanding: units.planStanding, modelCode: ratings.modelCode, owner: organisations.name, rank: queueRank,
       assigneeId: unitAssignments.assigneeId, assignee,
     })
     .from(units)

@@ -1,6 +1,6 @@
-import { and, eq, sql } from "drizzle-orm";
+import { and, eq, gt, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { analyses, captures, ratings, stepRecords, units } from "@/db/schema";
+import { analyses, captures, ratings, stepRecords, units, type StoredStepStanding } from "@/db/schema";
 import { evaluatePlan, keInBasis, ratingSchema, toleranceProfileSchema, type AnalysisReport, type CaptureResult, type PlanEvaluation } from "@/lib/analysis";
 import { getProfileInForce, listActivePlanSteps } from "./judgement";
 import { unitScopeWhere, type Scope } from "./scope";
@@ -36,9 +36,38 @@ export async function evaluateUnitPlan(scope: Scope, unitId: string): Promise<(P
   return { ...evaluation, ratingId: found.rating.id };
 }
 
-/** Recomputes and stores the unit's plan state (after a result, a record choice or a plan change). */
-export async function refreshUnitPlanState(scope: Scope, unitId: string): Promise<void> {
+/** What units.plan_standing keeps of an evaluation: each step's status and record. */
+export function standingOf(evaluation: PlanEvaluation): StoredStepStanding[] {
+  return evaluation.steps.map((s) => ({ stepId: s.stepId, status: s.status, recordCaptureId: s.record?.captureId ?? null, chosen: s.chosen }));
+}
+
+/**
+ * Recomputes and stores the unit's plan state and standing (after a result, a record choice or a plan
+ * change). Returns the standing stored, or null when the unit is not in scope or its rating unreadable.
+ */
+export async function refreshUnitPlanState(scope: Scope, unitId: string): Promise<StoredStepStanding[] | null> {
   const evaluation = await evaluateUnitPlan(scope, unitId);
-  if (!evaluation) return;
-  await getDb().update(units).set({ planState: evaluation.state }).where(and(eq(units.id, unitId), unitScopeWhere(scope)));
+  if (!evaluation) return null;
+  const standing = standingOf(evaluation);
+  await getDb().update(units).set({ planState: evaluation.state, planStanding: standing }).where(and(eq(units.id, unitId), unitScopeWhere(scope)));
+  return standing;
+}
+
+/**
+ * Stores the standing of open units that have none (plan states stored before it was kept), so the
+ * review queue reads it. Idempotent: a unit with a standing is skipped. Returns how many were filled.
+ */
+export async function backfillPlanStandings(batchSize = 100): Promise<number> {
+  let filled = 0;
+  let after: string | null = null;
+  for (;;) {
+    const batch: { id: string; labId: string }[] = await getDb().select({ id: units.id, labId: units.labId }).from(units)
+      .where(and(isNull(units.planStanding), eq(units.disposition, "open"), isNull(units.retiredAt), after !== null ? gt(units.id, after) : undefined))
+      .orderBy(units.id).limit(batchSize);
+    for (const unit of batch) {
+      if (await refreshUnitPlanState({ kind: "lab", labId: unit.labId }, unit.id)) filled++;
+      after = unit.id;
+    }
+    if (batch.length < batchSize) return filled;
+  }
 }

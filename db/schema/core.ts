@@ -143,6 +143,11 @@ export const units = pgTable(
     latestCaptureAt: timestamp("latest_capture_at", { withTimezone: true }),
     /** Against the rating's test plan, refreshed whenever a result, a record or the plan changes. */
     planState: planState("plan_state").notNull().default("incomplete"),
+    /**
+     * Each active step's status and record, stored with plan_state (the same refresh), so lists of many
+     * units read it instead of evaluating every plan. Null until the first refresh after it was added.
+     */
+    planStanding: jsonb("plan_standing").$type<StoredStepStanding[]>(),
     retiredAt: timestamp("retired_at", { withTimezone: true }),
     createdById: uuid("created_by_id").references(() => users.id),
     createdAt: createdAt(),
@@ -363,6 +368,8 @@ export type PlanStepRow = typeof planSteps.$inferSelect;
 export type CaptureCorrection = typeof captureCorrections.$inferSelect;
 export type ImportProfile = typeof importProfiles.$inferSelect;
 export type PlanState = (typeof planState.enumValues)[number];
+/** One step of units.plan_standing. */
+export type StoredStepStanding = { stepId: string; status: "passed" | "failed" | "inconclusive" | "missing"; recordCaptureId: string | null; chosen: boolean };
 export type VerdictStatusValue = (typeof verdictStatus.enumValues)[number];
 
 /** One-time links for invitations and password resets; only the sha256 of the token is stored. */

@@ -2,7 +2,7 @@ import { sql } from "drizzle-orm";
 import {
   bigint, boolean, date, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid,
 } from "drizzle-orm/pg-core";
-import { analyses, captures, organisations, ratings, stations, units, users, verdictStatus } from "./core";
+import { analyses, captures, organisations, planSteps, ratings, stations, units, users, verdictStatus } from "./core";
 
 // Instruments, their calibration, and the per-figure rows trends are computed from.
 
@@ -123,10 +123,16 @@ export const analysisFigures = pgTable(
     flagged: boolean("flagged").notNull().default(false),
     current: boolean("current").notNull().default(true),
     measuredAt: timestamp("measured_at", { withTimezone: true }).notNull(),
+    /** The plan step its analysis was judged for (analyses.plan_step_id), so the record pick reads this table alone. */
+    planStepId: uuid("plan_step_id").references(() => planSteps.id),
   },
   (t) => [
     primaryKey({ columns: [t.analysisId, t.figure, t.harmonicOrder] }),
-    index("analysis_figures_trend_idx").on(t.ratingId, t.figure, t.harmonicOrder, t.measuredAt).where(sql`${t.current}`),
+    // Each unit's figure of record is picked from one range of this index, without the table (trends).
+    // The columns after measured_at only cover the pick (drizzle has no INCLUDE), so it is an index-only scan.
+    index("analysis_figures_record_idx")
+      .on(t.ratingId, t.figure, t.harmonicOrder, t.unitId, t.measuredAt, t.labId, t.captureId, t.planStepId, t.value, t.status, t.flagged, t.expandedUncertainty)
+      .where(sql`${t.current}`),
     index("analysis_figures_unit_idx").on(t.unitId),
   ],
 );

@@ -4,7 +4,8 @@ import { listActivePlanSteps } from "@/db/queries/judgement";
 import { listLatestVerdicts, listVerdictsOfCaptures } from "@/db/queries/review-checks";
 import { assignUnits, listReviewers } from "@/db/queries/unit-assignments";
 import { countReviewQueue, listReviewQueue, listUnitEvents } from "@/db/queries/unit-events";
-import { evaluateUnitPlan } from "@/db/queries/unit-plan";
+import { refreshUnitPlanState } from "@/db/queries/unit-plan";
+import type { StoredStepStanding } from "@/db/schema";
 import { HttpError } from "@/lib/auth/guards";
 import { findingsOf, type CheckFinding, type JudgedCheck } from "@/lib/units/check-exceedance";
 import { requirePageActor, type Actor } from "./actor";
@@ -17,6 +18,11 @@ function requireReviewer(actor: Actor): { scope: LabScope; userId: string } {
     throw new HttpError(403, "The review queue is for quality engineers and lab managers.");
   }
   return { scope: actor.scope, userId: actor.userId };
+}
+
+/** The stored standing covers exactly the rating's active steps. */
+function sameSteps(standing: readonly StoredStepStanding[], steps: readonly { id: string }[]): boolean {
+  return standing.length === steps.length && steps.every((s) => standing.some((x) => x.stepId === s.id));
 }
 
 export type QueueFinding = CheckFinding & { step: string | null };
@@ -37,26 +43,31 @@ export async function getReviewQueueView(actor: Actor, page = 1) {
     listReviewQueue(scope, { limit: REVIEW_PAGE_SIZE + 1, offset: (page - 1) * REVIEW_PAGE_SIZE }), listReviewers(scope), countReviewQueue(scope, REVIEW_COUNT_CAP),
   ]);
   const shown = rows.slice(0, REVIEW_PAGE_SIZE);
+  const ratingIds = [...new Set(shown.map((r) => r.ratingId))];
+  const stepsOf = new Map(await Promise.all(ratingIds.map(async (id) => [id, await listActivePlanSteps(id)] as const)));
+  // The standing stored with each unit's plan state; evaluated (and stored) where it is missing or
+  // does not cover the rating's active steps, so the queue never shows a stale plan.
   const evaluated = await Promise.all(shown.map(async (row) => {
-    const evaluation = await evaluateUnitPlan(scope, row.id);
-    const steps = evaluation ? await listActivePlanSteps(evaluation.ratingId) : [];
-    return { row, evaluation, steps };
+    const steps = stepsOf.get(row.ratingId) ?? [];
+    const fresh = row.planStanding && sameSteps(row.planStanding, steps) ? row.planStanding : await refreshUnitPlanState(scope, row.id);
+    return { row, standing: fresh ?? [], steps };
   }));
   // Verdicts of just the captures shown: the records of failing or inconclusive steps, else the latest.
-  const recordIds = evaluated.flatMap(({ evaluation, steps }) => (steps.length === 0 ? [] : (evaluation?.steps ?? [])
-    .filter((s) => s.status === "failed" || s.status === "inconclusive").flatMap((s) => (s.record ? [s.record.captureId] : []))));
+  const recordIds = evaluated.flatMap(({ standing, steps }) => (steps.length === 0 ? [] : standing
+    .filter((s) => s.status === "failed" || s.status === "inconclusive").flatMap((s) => (s.recordCaptureId ? [s.recordCaptureId] : []))));
   const planless = evaluated.filter((e) => e.steps.length === 0).map((e) => e.row.id);
   const [recorded, latest] = await Promise.all([listVerdictsOfCaptures(scope, recordIds), listLatestVerdicts(scope, planless)]);
   const verdicts = [...recorded, ...latest];
-  const units = evaluated.map(({ row, evaluation, steps }) => {
+  const units = evaluated.map(({ row, standing, steps }) => {
     const stepName = new Map(steps.map((s) => [s.id, s.name]));
     const sources = verdicts.filter((v) => v.unitId === row.id);
     const findings: QueueFinding[] = sources.flatMap((v) => {
       const checks = Array.isArray(v.verdicts) ? (v.verdicts as JudgedCheck[]) : [];
       return findingsOf(checks).map((f) => ({ ...f, step: v.planStepId ? stepName.get(v.planStepId) ?? null : null }));
     });
-    const missingSteps = (evaluation?.steps ?? []).filter((s) => s.status === "missing").map((s) => stepName.get(s.stepId) ?? "a plan step");
-    return { ...row, findings, missingSteps, mine: row.assigneeId === userId };
+    const missingSteps = standing.filter((s) => s.status === "missing").map((s) => stepName.get(s.stepId) ?? "a plan step");
+    const { planStanding: _standing, ratingId: _rating, ...shownRow } = row;
+    return { ...shownRow, findings, missingSteps, mine: row.assigneeId === userId };
   });
   return { units, reviewers, me: userId, page, hasMore: rows.length > REVIEW_PAGE_SIZE, waiting, waitingCapped: waiting > REVIEW_COUNT_CAP };
 }

@@ -92,10 +92,10 @@ create temporary table tf as
     as x(figure text, "harmonicOrder" int, value float8, status text, flagged boolean, "expandedUncertainty" float8)
   where figure <> 'harmonic' or "harmonicOrder" <= 7;
 insert into analysis_figures (analysis_id, capture_id, unit_id, rating_id, lab_id, figure, harmonic_order, value, expanded_uncertainty,
-                              status, flagged, current, measured_at)
+                              status, flagged, current, measured_at, plan_step_id)
 select a.id, a.capture_id, c.unit_id, u.rating_id, c.lab_id, tf.figure, tf."harmonicOrder",
        tf.value * (0.97 + ((hashtext(a.id::text || tf.figure) & 1023) / 1023.0) * 0.06), tf."expandedUncertainty",
-       tf.status::verdict_status, tf.flagged, true, c.created_at
+       tf.status::verdict_status, tf.flagged, true, c.created_at, a.plan_step_id
 from analyses a join captures c on c.id = a.capture_id join units u on u.id = c.unit_id cross join tf
 where u.serial like 'SC%';
 

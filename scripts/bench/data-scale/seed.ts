@@ -7,6 +7,7 @@ import pg from "pg";
 import { closeDb } from "@/db/queries/connection";
 import { runMigrations } from "@/db/queries/migrate";
 import { insertDemoScenario } from "@/db/queries/seed";
+import { backfillPlanStandings } from "@/db/queries/unit-plan";
 import { DEMO_PASSWORD } from "@/db/seed-data";
 import { hashPassword } from "@/lib/auth/password";
 import { getEnv } from "@/lib/server/env";
@@ -94,12 +95,20 @@ async function bulk(): Promise<void> {
   });
 }
 
+/** The plan standing of the open units, as scripts/migrate.ts stores it (the seed writes plan states only). */
+async function fillStandings(): Promise<void> {
+  const started = performance.now();
+  const n = await backfillPlanStandings();
+  console.log(`  ${((performance.now() - started) / 1000).toFixed(1).padStart(7)} s  ${String(n).padStart(9)}  plan standing of the open units`);
+}
+
 try {
   const seeded = reseed ? null : await alreadySeeded();
   if (seeded !== null) {
     // Migrations added since the seed (new indexes) are applied to the database that is reused.
     await runMigrations();
     console.log(`data-scale: reusing ${dbName} (${seeded} captures; --reseed to build it again); migrations applied`);
+    await fillStandings();
   } else {
     const started = performance.now();
     await recreate();
@@ -107,6 +116,7 @@ try {
     await insertDemoScenario(await hashPassword(DEMO_PASSWORD));
     await closeDb();
     await bulk();
+    await fillStandings();
     console.log(`data-scale: seeded ${dbName} in ${((performance.now() - started) / 1000).toFixed(0)} s`);
   }
 } catch (err) {

@@ -18,15 +18,15 @@ const SAVED: Record<string, string> = { created: "Rating created with profile ve
 export default async function RatingPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<Search> }) {
   const actor = await requireRoleActor("admin", "operator", "qa");
   const [{ id }, search] = await Promise.all([params, searchParams]);
+  const saved = typeof search.saved === "string" ? SAVED[search.saved] : undefined;
   let view;
   try {
-    view = await getRatingPageView(actor, id);
+    view = await getRatingPageView(actor, id, { withAffected: Boolean(saved) && search.saved !== "created" });
   } catch (err) {
     if (err instanceof HttpError && err.status === 404) notFound();
     throw err;
   }
   const { rating } = view;
-  const saved = typeof search.saved === "string" ? SAVED[search.saved] : undefined;
   const offerRejudge = view.canEdit && saved && search.saved !== "created" && view.affectedCaptures > 0;
   return (
     <>
