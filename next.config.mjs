@@ -1,3 +1,5 @@
+import { siteHeaderRules } from "./lib/server/site-headers.mjs";
+
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   poweredByHeader: false,
@@ -7,22 +9,9 @@ const nextConfig = {
   typedRoutes: false,
   // Type-checking runs once in `npm test` (tsc --noEmit); the build does not repeat it.
   typescript: { ignoreBuildErrors: true },
-  // No framing (clickjacking), no MIME sniffing of served files, no full URLs in Referer headers.
+  // The site's security headers (lib/server/site-headers.mjs; the health probes send the same).
   async headers() {
-    return [
-      {
-        source: "/:path*",
-        headers: [
-          { key: "X-Frame-Options", value: "DENY" },
-          { key: "X-Content-Type-Options", value: "nosniff" },
-          { key: "Referrer-Policy", value: "same-origin" },
-          { key: "Permissions-Policy", value: "camera=(), microphone=(), geolocation=()" },
-        ],
-      },
-      // Not on attachment downloads: their route sends its own, stricter policy (sandbox), which a
-      // second header here would replace.
-      { source: "/((?!api/attachments/).*)", headers: [{ key: "Content-Security-Policy", value: "frame-ancestors 'none'" }] },
-    ];
+    return siteHeaderRules();
   },
   experimental: {
     // forbidden(): a page refused to a role answers 403 with the app's menu.

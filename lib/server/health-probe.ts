@@ -1,20 +1,10 @@
 import type { IncomingMessage, ServerResponse } from "node:http";
 import { HEALTH_HEADERS, healthAnswer, isHealthPath, type HealthAnswer } from "./health";
+import { SITE_HEADERS } from "./site-headers.mjs";
 
 // The health probes on a plain Node server (scripts/serve.ts, before Next): the same answers as the
-// route handlers, without Next's proxy, routing and response machinery on every probe.
-
-/**
- * The headers next.config.mjs gives every answer Next sends (this one bypasses Next);
- * tests/integration/health-fast-path.test.ts compares them with that file.
- */
-export const SITE_HEADERS = {
-  "X-Frame-Options": "DENY",
-  "X-Content-Type-Options": "nosniff",
-  "Referrer-Policy": "same-origin",
-  "Permissions-Policy": "camera=(), microphone=(), geolocation=()",
-  "Content-Security-Policy": "frame-ancestors 'none'",
-} as const;
+// route handlers, without Next's proxy, routing and response machinery on every probe. It bypasses
+// Next, so it sends the site's security headers itself (the ones next.config.mjs gives Next's answers).
 
 function send(res: ServerResponse, { status, body }: HealthAnswer, head: boolean): void {
   const json = JSON.stringify(body);

@@ -152,7 +152,6 @@ export async function spoolObject(options: SpoolOptions): Promise<SpooledObject>
     if (failure !== null) return;
     failure = error;
     for (let i = 0; i < count; i++) if (Atomics.load(flags, i) !== RANGE_WRITTEN) Atomics.store(flags, i, RANGE_FAILED);
-    Atomics.notify(flags, 0);
     for (let i = 0; i < count; i++) Atomics.notify(flags, i);
     for (const list of waiters.values()) for (const w of list) w.reject(error);
     waiters.clear();

@@ -127,28 +127,29 @@ export async function headObject(key: string): Promise<{ sizeBytes: number; etag
   }
 }
 
-/** The first bytes of an object, for a header check before queueing. */
-export async function readObjectHead(key: string, bytes: number): Promise<Uint8Array> {
-  const out = await getS3().send(new GetObjectCommand({ Bucket: getEnv().S3_BUCKET, Key: key, Range: `bytes=0-${bytes - 1}` }));
-  if (!out.Body) return new Uint8Array(0);
-  return out.Body.transformToByteArray();
-}
+/** What a GET of an object may ask for: `range` is bytes [start, end] (inclusive). */
+export type ObjectRead = { etag?: string; range?: { start: number; end: number }; signal?: AbortSignal };
 
-/** Streams an object; with `etag`, fails with a 412 when the object changed since the upload was completed. */
-export async function openObjectStream(key: string, etag?: string): Promise<Readable> {
-  const out = await getS3().send(new GetObjectCommand({ Bucket: getEnv().S3_BUCKET, Key: key, IfMatch: etag || undefined }));
-  if (!out.Body) throw new Error(`The object store returned no body for ${key}`);
-  return out.Body as Readable;
-}
-
-/** Bytes [start, end] (inclusive) of an object, for the worker's parallel ranged reads; `etag` as above. */
-export async function openObjectRange(key: string, start: number, end: number, etag?: string, signal?: AbortSignal): Promise<AsyncIterable<Uint8Array>> {
+/** The one GET of a stored object; with `etag`, fails with a 412 when the object changed since the upload was completed. */
+async function getObjectBody(key: string, { etag, range, signal }: ObjectRead) {
   const out = await getS3().send(
-    new GetObjectCommand({ Bucket: getEnv().S3_BUCKET, Key: key, IfMatch: etag || undefined, Range: `bytes=${start}-${end}` }),
+    new GetObjectCommand({ Bucket: getEnv().S3_BUCKET, Key: key, IfMatch: etag || undefined, Range: range && `bytes=${range.start}-${range.end}` }),
     signal ? { abortSignal: signal } : {},
   );
-  if (!out.Body) throw new Error(`The object store returned no body for ${key}`);
-  return out.Body as Readable;
+  return out.Body;
+}
+
+/** The first bytes of an object, for a header check before queueing. */
+export async function readObjectHead(key: string, bytes: number): Promise<Uint8Array> {
+  const body = await getObjectBody(key, { range: { start: 0, end: bytes - 1 } });
+  return body ? body.transformToByteArray() : new Uint8Array(0);
+}
+
+/** Streams an object, or one range of it (the worker's parallel ranged reads); see ObjectRead. */
+export async function openObjectStream(key: string, read: ObjectRead = {}): Promise<Readable> {
+  const body = await getObjectBody(key, read);
+  if (!body) throw new Error(`The object store returned no body for ${key}`);
+  return body as Readable;
 }
 
 /**

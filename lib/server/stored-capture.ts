@@ -10,7 +10,7 @@ import { createCaptureParser, type ParsedCapture, type ParseOptions } from "@/li
 import { readCaptureBytes } from "./capture-reader";
 import { spoolObject } from "./object-spool";
 import { PARALLEL_MIN_BYTES } from "./parallel-ingest";
-import { headObject, isPreconditionFailed, openObjectRange, openObjectStream } from "./storage";
+import { headObject, isPreconditionFailed, openObjectStream } from "./storage";
 
 export interface StoredObject {
   objectKey: string;
@@ -40,7 +40,7 @@ export async function readStoredCapture(object: StoredObject, options: ParseOpti
   }
   const spool = await spoolObject({
     size: object.sizeBytes,
-    fetchRange: (start, end, signal) => openObjectRange(object.objectKey, start, end, etag, signal),
+    fetchRange: (start, end, signal) => openObjectStream(object.objectKey, { etag, range: { start, end }, signal }),
     isFinal: isPreconditionFailed,
   });
   const ticker = setInterval(() => onProgress(spool.progress()), PROGRESS_EVERY_MS);
@@ -68,7 +68,7 @@ async function streamStoredCapture(object: StoredObject, options: ParseOptions, 
   const parser = createCaptureParser(options);
   const hash = createHash("sha256");
   let read = 0;
-  const stream = await openObjectStream(object.objectKey, object.objectEtag ?? undefined);
+  const stream = await openObjectStream(object.objectKey, { etag: object.objectEtag ?? undefined });
   for await (const chunk of stream as AsyncIterable<Uint8Array>) {
     hash.update(chunk);
     parser.push(chunk);

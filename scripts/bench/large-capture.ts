@@ -99,25 +99,17 @@ async function upload(token: string, file: string, size: number): Promise<string
   return plan.capture.id;
 }
 
-/** The process and its descendants (the worker runs each job in a child). */
-function processTree(root: number): number[] {
-  const children = new Map<number, number[]>();
-  for (const entry of readdirSync("/proc")) {
-    if (!/^\d+$/.test(entry)) continue;
-    try {
-      const ppid = Number(readFileSync(`/proc/${entry}/stat`, "utf8").split(") ")[1]?.split(" ")[1]);
-      children.set(ppid, [...(children.get(ppid) ?? []), Number(entry)]);
-    } catch { /* the process ended meanwhile */ }
+/** ppid and CPU seconds (user + system, at 100 ticks a second) of one process; null once it is gone. */
+function readStat(pid: number): { ppid: number; cpuS: number } | null {
+  try {
+    const fields = readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1]?.split(" ") ?? [];
+    return { ppid: Number(fields[1]), cpuS: (Number(fields[11]) + Number(fields[12])) / 100 };
+  } catch {
+    return null;
   }
-  const tree: number[] = [];
-  const stack = [root];
-  while (stack.length > 0) {
-    const pid = stack.pop() as number;
-    tree.push(pid);
-    stack.push(...(children.get(pid) ?? []));
-  }
-  return tree;
 }
+
+const cpuSeconds = (pid: number): number | null => readStat(pid)?.cpuS ?? null;
 
 /** Resident set of one process in MB (0 once it is gone). */
 function rssMb(pid: number): number {
@@ -128,38 +120,57 @@ function rssMb(pid: number): number {
   }
 }
 
-/** Resident set of a process and its descendants, and of the largest of them, in MB. */
-function treeRssMb(root: number): { total: number; largest: number } {
-  const each = processTree(root).map(rssMb);
-  return { total: each.reduce((a, b) => a + b, 0), largest: Math.max(0, ...each) };
-}
+type TreeSample = { pid: number; cpuS: number; rssMb: number }[];
 
-/** CPU seconds (user + system) a process has used so far; null once it is gone. */
-function cpuSeconds(pid: number): number | null {
-  try {
-    const fields = readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1]?.split(" ") ?? [];
-    return (Number(fields[11]) + Number(fields[12])) / 100;
-  } catch {
-    return null;
+/**
+ * One walk of /proc: each live process of the tree under `root` (the worker runs each job in a
+ * child) with its CPU seconds and resident set, so one sample gives both figures.
+ */
+function sampleTree(root: number): TreeSample {
+  const stats = new Map<number, { ppid: number; cpuS: number }>();
+  const children = new Map<number, number[]>();
+  for (const entry of readdirSync("/proc")) {
+    if (!/^\d+$/.test(entry)) continue;
+    const pid = Number(entry);
+    const stat = readStat(pid);
+    if (!stat) continue;
+    stats.set(pid, stat);
+    children.set(stat.ppid, [...(children.get(stat.ppid) ?? []), pid]);
   }
+  const tree: TreeSample = [];
+  const stack = [root];
+  while (stack.length > 0) {
+    const pid = stack.pop() as number;
+    const stat = stats.get(pid);
+    if (stat) tree.push({ pid, cpuS: stat.cpuS, rssMb: rssMb(pid) });
+    stack.push(...(children.get(pid) ?? []));
+  }
+  return tree;
 }
 
-/** Follows the CPU used by a process tree from now on (processes that start later count from zero). */
-function cpuTracker(root: number) {
+/** Peak resident set of the tree and of its largest process, and the CPU it used from the first sample on (processes that start later count from zero). */
+function treeTracker(root: number) {
   const first = new Map<number, number>();
   const last = new Map<number, number>();
-  let initial = true;
-  const sample = (): void => {
-    for (const pid of processTree(root)) {
-      const cpu = cpuSeconds(pid);
-      if (cpu === null) continue;
-      if (!first.has(pid)) first.set(pid, initial ? cpu : 0);
-      last.set(pid, cpu);
+  let peakMb = 0;
+  let peakLargestMb = 0;
+  const record = (initial: boolean): void => {
+    const tree = sampleTree(root);
+    for (const { pid, cpuS } of tree) {
+      if (!first.has(pid)) first.set(pid, initial ? cpuS : 0);
+      last.set(pid, cpuS);
     }
+    const each = tree.map((p) => p.rssMb);
+    peakMb = Math.max(peakMb, each.reduce((a, b) => a + b, 0));
+    peakLargestMb = Math.max(peakLargestMb, ...each);
   };
-  sample();
-  initial = false;
-  return { sample, used: () => [...last].reduce((sum, [pid, cpu]) => sum + cpu - (first.get(pid) ?? 0), 0) };
+  record(true);
+  return {
+    sample: () => record(false),
+    peakMb: () => peakMb,
+    peakLargestMb: () => peakLargestMb,
+    cpuUsed: () => [...last].reduce((sum, [pid, cpu]) => sum + cpu - (first.get(pid) ?? 0), 0),
+  };
 }
 
 /** The process listening on the store's port (the local fake shares this machine's cores). */
@@ -198,20 +209,16 @@ async function main() {
   const id = await upload(token, file, size);
   if (!id) throw new Error("this file is stored already: the bench resets its database first, so delete .data/bench and retry");
   const uploadS = (Date.now() - started) / 1000;
-  let peakMb = 0;
-  let peakJobMb = 0;
-  const workerCpu = cpuTracker(worker.pid ?? 0);
+  const workerTree = treeTracker(worker.pid ?? 0);
   const store = storePid();
   const storeCpuBefore = store ? cpuSeconds(store) : null;
-  const sampler = setInterval(() => {
-    const rss = treeRssMb(worker.pid ?? 0);
-    peakMb = Math.max(peakMb, rss.total);
-    peakJobMb = Math.max(peakJobMb, rss.largest);
-    workerCpu.sample();
-  }, 100);
+  const sampler = setInterval(workerTree.sample, 100);
   const t = await waitUntilDone(labId, id);
   clearInterval(sampler);
-  workerCpu.sample();
+  workerTree.sample();
+  const peakMb = workerTree.peakMb();
+  const peakJobMb = workerTree.peakLargestMb();
+  const workerCpuS = workerTree.cpuUsed();
   const storeCpu = store && storeCpuBefore !== null ? (cpuSeconds(store) ?? storeCpuBefore) - storeCpuBefore : null;
   await stopBenchWorker(worker);
   await revokeStationKey({ kind: "lab", labId }, keyId);
@@ -226,8 +233,8 @@ async function main() {
   const cores = availableParallelism();
   printTable(`CPU seconds for the same work (${cores} cores, load average ${loadavg()[0]?.toFixed(1)}): the engine alone, the worker (download, sha256, parse, analysis, storing), the local store serving the ranges`, [
     ["reference engine", "worker", "worker ÷ engine", "local store", "(worker + store) ÷ engine"],
-    [reference.cpuS.toFixed(1), workerCpu.used().toFixed(1), `${(workerCpu.used() / reference.cpuS).toFixed(2)}×`, storeCpu === null ? "n/a" : storeCpu.toFixed(1),
-      storeCpu === null ? "n/a" : `${((workerCpu.used() + storeCpu) / reference.cpuS).toFixed(2)}×`],
+    [reference.cpuS.toFixed(1), workerCpuS.toFixed(1), `${(workerCpuS / reference.cpuS).toFixed(2)}×`, storeCpu === null ? "n/a" : storeCpu.toFixed(1),
+      storeCpu === null ? "n/a" : `${((workerCpuS + storeCpu) / reference.cpuS).toFixed(2)}×`],
   ]);
 }
 

@@ -87,7 +87,7 @@ function storeService(action: "stop" | "start") {
 async function storedSha256(captureId: string): Promise<string> {
   const { capture } = (await getCaptureDetail({ kind: "lab", labId }, captureId))!;
   const hash = createHash("sha256");
-  for await (const chunk of await openObjectStream(capture.objectKey, capture.objectEtag ?? undefined)) hash.update(chunk as Buffer);
+  for await (const chunk of await openObjectStream(capture.objectKey, { etag: capture.objectEtag ?? undefined })) hash.update(chunk as Buffer);
   return hash.digest("hex");
 }
 
