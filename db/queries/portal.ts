@@ -4,14 +4,16 @@ import { labClients, organisations, ratings, reports, units } from "@/db/schema"
 
 // Released reports as a client reads them: its own (reports.client_id), from labs it is linked to.
 
-export type PortalFilter = { serial?: string; model?: string; from?: Date; to?: Date; limit?: number };
+export type PortalFilter = { serial?: string; model?: string; from?: Date; to?: Date; limit?: number; offset?: number };
 
-const columns = {
-  id: reports.id, number: reports.number, revision: reports.revision, status: reports.status, objectKey: reports.objectKey,
-  sha256: reports.sha256, sizeBytes: reports.sizeBytes, disposition: reports.disposition, overall: reports.overall, content: reports.content,
+/** What a list shows: not the report's content nor where its file is kept. */
+const listColumns = {
+  id: reports.id, number: reports.number, revision: reports.revision, status: reports.status,
+  sha256: reports.sha256, sizeBytes: reports.sizeBytes, disposition: reports.disposition, overall: reports.overall,
   releasedAt: reports.releasedAt, withdrawnAt: reports.withdrawnAt, withdrawReason: reports.withdrawReason, serial: units.serial,
   modelCode: ratings.modelCode, labName: organisations.name,
 };
+const columns = { ...listColumns, objectKey: reports.objectKey, content: reports.content };
 
 function clientWhere(clientId: string): SQL {
   return and(
@@ -29,7 +31,16 @@ function base() {
     .innerJoin(organisations, eq(organisations.id, reports.labId));
 }
 
-export type PortalReportRow = Awaited<ReturnType<typeof listClientReports>>[number];
+// The same joins as base(), without the bulky columns (drizzle's select types do not take a generic column set).
+function listBase() {
+  return getDb().select(listColumns).from(reports)
+    .innerJoin(units, eq(units.id, reports.unitId))
+    .innerJoin(ratings, eq(ratings.id, units.ratingId))
+    .innerJoin(organisations, eq(organisations.id, reports.labId));
+}
+
+export type PortalReportRow = Awaited<ReturnType<typeof getClientReports>>[number];
+export type PortalListRow = Awaited<ReturnType<typeof listClientReports>>[number];
 
 export async function listClientReports(clientId: string, f: PortalFilter = {}) {
   const where = [clientWhere(clientId)];
@@ -37,7 +48,7 @@ export async function listClientReports(clientId: string, f: PortalFilter = {}) 
   if (f.model) where.push(ilike(ratings.modelCode, `%${escapeLike(f.model)}%`));
   if (f.from) where.push(gte(reports.releasedAt, f.from));
   if (f.to) where.push(lt(reports.releasedAt, f.to));
-  return base().where(and(...where)).orderBy(desc(reports.releasedAt), desc(reports.revision)).limit(f.limit ?? 200);
+  return listBase().where(and(...where)).orderBy(desc(reports.releasedAt), desc(reports.revision), desc(reports.id)).limit(f.limit ?? 200).offset(f.offset ?? 0);
 }
 
 /** Exactly this serial (the API), every revision, newest first. */

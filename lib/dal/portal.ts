@@ -1,5 +1,5 @@
 import "server-only";
-import { getClientReports, getValidReportForLabUnit, listClientReports, type PortalReportRow } from "@/db/queries/portal";
+import { getClientReports, getValidReportForLabUnit, listClientReports, type PortalListRow, type PortalReportRow } from "@/db/queries/portal";
 import { HttpError, requireApiUser, requireRole } from "@/lib/auth/guards";
 import { portalFilterDates, type PortalQuery } from "@/lib/reports/portal-query";
 import { csvResponse, pdfResponse, zipResponse } from "./portal-files";
@@ -7,12 +7,18 @@ import { csvResponse, pdfResponse, zipResponse } from "./portal-files";
 // The client portal: a client's users read their own released reports. Another client's report, or a
 // missing one, answers 404 alike.
 
-export type PortalListItem = Omit<PortalReportRow, "content" | "objectKey">;
+export type PortalListItem = PortalListRow;
 
-export async function getPortalView(query: PortalQuery): Promise<{ reports: PortalListItem[]; organisationName: string }> {
+/** Released reports per page of the portal. */
+export const PORTAL_PAGE_SIZE = 50;
+
+export async function getPortalView(query: PortalQuery): Promise<{ reports: PortalListItem[]; organisationName: string; page: number; hasMore: boolean }> {
   const user = await requireRole("manufacturer");
-  const rows = await listClientReports(user.organisationId, { serial: query.serial, model: query.model, ...portalFilterDates(query) });
-  return { reports: rows.map(({ content: _c, objectKey: _k, ...rest }) => rest), organisationName: user.organisationName };
+  const page = query.page ?? 1;
+  const rows = await listClientReports(user.organisationId, {
+    serial: query.serial, model: query.model, ...portalFilterDates(query), limit: PORTAL_PAGE_SIZE + 1, offset: (page - 1) * PORTAL_PAGE_SIZE,
+  });
+  return { reports: rows.slice(0, PORTAL_PAGE_SIZE), organisationName: user.organisationName, page, hasMore: rows.length > PORTAL_PAGE_SIZE };
 }
 
 async function oneReport(clientId: string, id: string): Promise<PortalReportRow> {

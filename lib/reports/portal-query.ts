@@ -10,6 +10,7 @@ export const portalQuerySchema = z.object({
   model: z.string().trim().max(80, "model: at most 80 characters.").optional(),
   from: day("from").optional(),
   to: day("to").optional(),
+  page: z.coerce.number({ error: "page: use a whole number from 1." }).int("page: use a whole number from 1.").min(1, "page: use a whole number from 1.").max(1000, "page: at most 1000.").optional(),
 });
 
 export type PortalQuery = z.infer<typeof portalQuerySchema>;
@@ -21,7 +22,7 @@ export function portalQueryFrom(params: URLSearchParams | Record<string, string 
     const s = Array.isArray(v) ? v[0] : v;
     return s === null || s === undefined || s.trim() === "" ? undefined : s;
   };
-  return portalQuerySchema.safeParse({ serial: get("serial"), model: get("model"), from: get("from"), to: get("to") });
+  return portalQuerySchema.safeParse({ serial: get("serial"), model: get("model"), from: get("from"), to: get("to"), page: get("page") });
 }
 
 /** The filter in dates: `to` includes its whole day. */

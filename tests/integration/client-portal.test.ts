@@ -12,6 +12,8 @@ import { GET as portalCsv } from "@/app/api/portal/reports/[id]/csv/route";
 import { POST as portalZip } from "@/app/api/portal/zip/route";
 import { createClientToken, revokeMyOrganisationToken } from "@/lib/dal/client-tokens";
 import { ZIP_MAX_BYTES, ZIP_MAX_REPORTS } from "@/lib/dal/portal-files";
+import { getPortalView, PORTAL_PAGE_SIZE } from "@/lib/dal/portal";
+import { portalQueryFrom } from "@/lib/reports/portal-query";
 import { REPORT_CSV_COLUMNS } from "@/lib/reports/report-csv";
 import { seededOrgs } from "./helpers";
 import { closeConnections } from "./pipeline-support";
@@ -170,6 +172,26 @@ describe("portal downloads (session)", () => {
     expect(tooBig.status).toBe(413);
     expect((await tooBig.json()).error).toMatch(/MiB a zip may hold/);
   }, 60_000);
+
+  it("getPortalView shows one page of PORTAL_PAGE_SIZE reports without their content, the pages together listing each report once", async () => {
+    session.current = kestrumUser;
+    const first = await getPortalView({});
+    expect(first.reports.length).toBeLessThanOrEqual(PORTAL_PAGE_SIZE);
+    expect(first.reports[0]).not.toHaveProperty("content");
+    expect(first.reports[0]).not.toHaveProperty("objectKey");
+    const seen = [...first.reports];
+    for (let page = 2, more = first.hasMore; more && page <= 50; page++) {
+      const next = await getPortalView({ page });
+      seen.push(...next.reports);
+      more = next.hasMore;
+    }
+    expect(new Set(seen.map((r) => r.id)).size).toBe(seen.length);
+    expect(seen.map((r) => r.id)).toEqual(expect.arrayContaining([ids.k1, ids.k2, ids.kBad]));
+    expect(seen.map((r) => r.id)).not.toContain(ids.p1);
+    expect((await getPortalView({ page: Math.floor(seen.length / PORTAL_PAGE_SIZE) + 2 })).reports).toEqual([]);
+    expect(portalQueryFrom({ page: "0" }).error?.issues[0]?.message).toMatch(/^page:/);
+    expect(portalQueryFrom({ page: "3" }).data?.page).toBe(3);
+  });
 
   it("portalZip refuses another client's id among the selection as missing", async () => {
     session.current = kestrumUser;

@@ -1,3 +1,4 @@
+import Link from "next/link";
 import { PageHeader } from "@/components/shell/page-header";
 import { Button } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -9,6 +10,14 @@ import { portalQueryFrom } from "@/lib/reports/portal-query";
 import { ReportRow } from "./_components/report-row";
 
 export const metadata = { title: "Released reports" };
+
+/** The same search on another page. */
+function pageHref(query: Record<string, string | number | undefined>, page: number): string {
+  const params = new URLSearchParams();
+  for (const [k, v] of Object.entries({ ...query, page: page > 1 ? page : undefined })) if (v !== undefined && String(v) !== "") params.set(k, String(v));
+  const s = params.toString();
+  return s ? `/portal?${s}` : "/portal";
+}
 
 export default async function PortalPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const parsed = portalQueryFrom(await searchParams);
@@ -41,6 +50,12 @@ export default async function PortalPage({ searchParams }: { searchParams: Promi
           </div>
         </form>
       )}
+      {view.page > 1 || view.hasMore ? (
+        <nav aria-label="Pages" className="flex gap-4 text-sm">
+          {view.page > 1 ? <Link href={pageHref(query, view.page - 1)}>← Newer reports</Link> : null}
+          {view.hasMore ? <Link href={pageHref(query, view.page + 1)}>Older reports →</Link> : null}
+        </nav>
+      ) : null}
     </div>
   );
 }
