@@ -16,16 +16,18 @@ export async function evaluateUnitPlan(scope: Scope, unitId: string): Promise<(P
   if (!found) return null;
   const nameplate = ratingSchema.safeParse(found.rating.nameplate);
   if (!nameplate.success) return null;
+  const basis = nameplate.data.ke?.basis;
+  // Reading a part of a report decompresses the whole of it: only a rating with a Ke basis needs it.
+  const backEmf = basis ? sql<AnalysisReport["backEmf"] | null>`${analyses.report} -> 'backEmf'` : sql<null>`null`;
   const [steps, profileRow, rows, choices] = await Promise.all([
     listActivePlanSteps(found.rating.id),
     getProfileInForce(found.rating.id),
-    db.select({ id: captures.id, createdAt: captures.createdAt, speedRpm: captures.speedRpm, planStepId: analyses.planStepId, overall: analyses.overall, backEmf: sql<AnalysisReport["backEmf"] | null>`${analyses.report} -> 'backEmf'` })
+    db.select({ id: captures.id, createdAt: captures.createdAt, speedRpm: captures.speedRpm, planStepId: analyses.planStepId, overall: analyses.overall, backEmf })
       .from(captures).innerJoin(analyses, and(eq(analyses.captureId, captures.id), eq(analyses.current, true)))
       .where(and(eq(captures.unitId, unitId), eq(captures.state, "analysed"))).limit(1000),
     db.select().from(stepRecords).where(eq(stepRecords.unitId, unitId)),
   ]);
   const profile = profileRow ? toleranceProfileSchema.safeParse(profileRow.profile) : null;
-  const basis = nameplate.data.ke?.basis;
   const results: CaptureResult[] = rows.map((r) => ({
     captureId: r.id, createdAt: r.createdAt, speedRpm: r.speedRpm, judgedForStepId: r.planStepId, overall: r.overall,
     ke: basis ? keInBasis(r.backEmf ?? null, basis) : null,
