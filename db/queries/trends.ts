@@ -63,8 +63,8 @@ export async function listTrendFigures(labId: string, ratingId: string): Promise
  * judges the check, else the latest capture judged for such a step, else the latest valid capture
  * (a value, not flagged), else the latest one. Filters narrow the captures before the pick.
  *
- * The pick reads one range of analysis_figures_record_idx (every column it needs is in the index, and
- * the step a row was judged for is on the row); the few picked rows are then joined for their names.
+ * One pick per unit of the rating, each from its own short range of analysis_figures_record_idx (every
+ * column the pick needs is in the index, and the step a row was judged for is on the row).
  */
 export async function listFigureOfRecord(labId: string, key: TrendSeriesKey, filters: TrendFilters, limit = 5000) {
   const f = analysisFigures;
@@ -73,7 +73,6 @@ export async function listFigureOfRecord(labId: string, key: TrendSeriesKey, fil
   const filtersSql = [
     filters.from ? sql` and ${f.measuredAt} >= ${filters.from.toISOString()}` : sql``,
     filters.to ? sql` and ${f.measuredAt} < ${filters.to.toISOString()}` : sql``,
-    filters.clientId ? sql` and ${f.unitId} in (select ${units.id} from ${units} where ${units.ratingId} = ${key.ratingId} and ${units.organisationId} = ${filters.clientId})` : sql``,
     filters.testKind ? sql` and fc.test_kind = ${filters.testKind}` : sql``,
     filters.stationId ? sql` and fc.station_id = ${filters.stationId}` : sql``,
     filters.instrumentId
@@ -87,25 +86,27 @@ export async function listFigureOfRecord(labId: string, key: TrendSeriesKey, fil
     with steps as (
       select ${planSteps.id} as id from ${planSteps}
       where ${planSteps.ratingId} = ${key.ratingId} and ${planSteps.retiredAt} is null and ${planSteps.checks} @> ${JSON.stringify([key.check])}::jsonb
-    ),
-    picked as (
-      select distinct on (${f.unitId}) ${f.unitId} as unit_id, ${f.captureId} as capture_id, ${f.measuredAt} as measured_at, ${f.value} as value,
-        ${f.status} as status, ${f.flagged} as flagged, ${f.expandedUncertainty} as expanded_uncertainty,
-        ${fromStep} as from_step
+    )
+    select u.id as unit_id, u.serial, p.capture_id, p.measured_at, p.value, p.status, p.flagged, p.expanded_uncertainty, p.from_step,
+      c.test_kind, st.name as station_name, o.name as client_name
+    from ${units} u
+    cross join lateral (
+      select ${f.captureId} as capture_id, ${f.measuredAt} as measured_at, ${f.value} as value, ${f.status} as status, ${f.flagged} as flagged,
+        ${f.expandedUncertainty} as expanded_uncertainty, ${fromStep} as from_step
       from ${f}
       ${needsCapture ? sql`join ${captures} fc on fc.id = ${f.captureId}` : sql``}
-      left join ${stepRecords} sr on sr.unit_id = ${f.unitId} and sr.plan_step_id = ${f.planStepId} and sr.capture_id = ${f.captureId}
-      where ${f.ratingId} = ${key.ratingId} and ${f.figure} = ${key.figure} and ${f.harmonicOrder} = ${key.harmonicOrder} and ${f.current}
+      where ${f.ratingId} = ${key.ratingId} and ${f.figure} = ${key.figure} and ${f.harmonicOrder} = ${key.harmonicOrder} and ${f.unitId} = u.id and ${f.current}
         and ${f.labId} = ${labId}${sql.join(filtersSql)}
-      order by ${f.unitId}, (sr.capture_id is not null) desc, ${fromStep} desc, (${f.value} is not null and not ${f.flagged}) desc, ${f.measuredAt} desc
-      limit ${limit}
-    )
-    select p.*, u.serial, c.test_kind, st.name as station_name, o.name as client_name
-    from picked p
-    join ${units} u on u.id = p.unit_id and u.lab_id = ${labId}
+      order by exists (select 1 from ${stepRecords} sr where sr.unit_id = u.id and sr.plan_step_id = ${f.planStepId} and sr.capture_id = ${f.captureId}) desc,
+        ${fromStep} desc, (${f.value} is not null and not ${f.flagged}) desc, ${f.measuredAt} desc
+      limit 1
+    ) p
     join ${captures} c on c.id = p.capture_id
     join ${organisations} o on o.id = u.organisation_id
-    left join ${stations} st on st.id = c.station_id`);
+    left join ${stations} st on st.id = c.station_id
+    where u.rating_id = ${key.ratingId} and u.lab_id = ${labId}${filters.clientId ? sql` and u.organisation_id = ${filters.clientId}` : sql``}
+    order by u.id
+    limit ${limit}`);
   return result.rows.map((r) => ({
     unitId: r.unit_id, serial: r.serial, captureId: r.capture_id, measuredAt: new Date(r.measured_at), value: r.value === null ? null : Number(r.value),
     status: r.status, flagged: r.flagged, expandedUncertainty: r.expanded_uncertainty === null ? null : Number(r.expanded_uncertainty),
