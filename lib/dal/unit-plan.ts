@@ -20,6 +20,9 @@ export const stepRecordSchema = z.object({
 
 export const STEP_STATUS_WORDS: Record<StepStatus, string> = { passed: "Passed", failed: "Failed", inconclusive: "Inconclusive", missing: "Missing" };
 
+/** Captures a step's record choice offers at most (newest first; a unit can have hundreds). */
+export const RECORD_CANDIDATES = 30;
+
 /** The unit page's plan: each step with its window, checks, status, capture of record and the other candidates. */
 export async function getUnitPlanView(unitId: string) {
   const user = await requireUser();
@@ -40,7 +43,10 @@ export async function getUnitPlanView(unitId: string) {
         id: step.id, name: step.name, testKind: TEST_KIND_LABELS[step.testKind], speedMinRpm: step.speedMinRpm, speedMaxRpm: step.speedMaxRpm,
         checks: step.checks.map((c) => CHECK_LABELS[c]), status: e?.status ?? "missing", chosen: e?.chosen ?? false,
         record: e?.record ? { id: e.record.captureId, name: names.get(e.record.captureId) ?? "capture", overall: e.record.overall, createdAt: e.record.createdAt.toISOString(), speedRpm: e.record.speedRpm } : null,
-        candidates: captures.filter((c) => c.judgedStepId === step.id && c.state === "analysed").map((c) => ({ id: c.id, name: c.originalName, createdAt: c.createdAt.toISOString(), overall: c.overall })),
+        // The latest RECORD_CANDIDATES judged for the step, and the record itself wherever it falls.
+        candidates: captures.filter((c) => c.judgedStepId === step.id && c.state === "analysed")
+          .filter((c, i) => i < RECORD_CANDIDATES || c.id === e?.record?.captureId)
+          .map((c) => ({ id: c.id, name: c.originalName, createdAt: c.createdAt.toISOString(), overall: c.overall })),
       };
     }),
   };

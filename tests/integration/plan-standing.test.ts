@@ -1,10 +1,12 @@
 import { eq } from "drizzle-orm";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { getDb } from "@/db/client";
 import { evaluateUnitPlan, backfillPlanStandings, refreshUnitPlanState, standingOf } from "@/db/queries/unit-plan";
-import { units, type StoredStepStanding, type Unit } from "@/db/schema";
+import { stepRecords, units, type StoredStepStanding, type Unit } from "@/db/schema";
 import { actorForStoredUser, type Actor } from "@/lib/dal/actor";
 import { getReviewQueueView } from "@/lib/dal/review";
+import { getUnitPlanView, RECORD_CANDIDATES } from "@/lib/dal/unit-plan";
+import type { SessionUser } from "@/lib/auth/options";
 import { seededOrgs } from "./helpers";
 import { closeConnections } from "./pipeline-support";
 import { makeAnalysedCapture, makeUnit, seededRating, type StoredVerdict } from "./dispositions-support";
@@ -13,6 +15,9 @@ import { SEEDED, sessionUserOf } from "./ratings-support";
 // The plan standing stored with each unit's plan state (units.plan_standing): the review queue reads it
 // instead of evaluating every unit's plan, so it must be what an evaluation gives and be refreshed
 // when it no longer covers the rating's steps.
+
+const session = vi.hoisted(() => ({ current: null as SessionUser | null }));
+vi.mock("next-auth", async (original) => ({ ...(await original<object>()), getServerSession: async () => (session.current ? { user: session.current } : null) }));
 
 const thdFail: StoredVerdict = { check: "thd", label: "THD", measured: 5.4, unit: "%", lower: null, upper: 5, status: "fail", basis: "line-line", source: "test" };
 const minutesAgo = (m: number) => new Date(Date.now() - m * 60_000);
@@ -27,7 +32,8 @@ let failingCapture: string;
 beforeAll(async () => {
   const { lab } = await seededOrgs();
   labId = lab.id;
-  qa = await actorForStoredUser((await sessionUserOf(SEEDED.qa)).id);
+  session.current = await sessionUserOf(SEEDED.qa);
+  qa = await actorForStoredUser(session.current.id);
   pm = await seededRating(lab.id, "PX-120");
   // Three-step plan, the first step captured and failing (the oldest of the queue's failures, so it is on page 1).
   failing = await makeUnit(pm.rating, { latestOverall: "fail", planState: "failed", latestCaptureAt: new Date("2001-01-01T00:00:00Z") });
@@ -79,5 +85,22 @@ describe("units.plan_standing", () => {
     expect((await standingIn(open.id))?.map((s) => s.status)).toEqual(["missing", "missing", "missing"]);
     expect(await standingIn(closed.id)).toBeNull();
     expect(await backfillPlanStandings()).toBe(0);
+  });
+
+  it("getUnitPlanView offers at most RECORD_CANDIDATES captures per step, newest first, and always the record", async () => {
+    const many = await makeUnit(pm.rating, { latestOverall: "fail", latestCaptureAt: minutesAgo(5) });
+    const step = pm.steps[0]!.id;
+    const made: string[] = [];
+    for (let i = 0; i < RECORD_CANDIDATES + 5; i++) {
+      made.push((await makeAnalysedCapture(many, { planStepId: step, overall: "fail", verdicts: [thdFail], createdAt: minutesAgo(1000 - i) })).id);
+    }
+    const oldest = made[0]!;
+    await getDb().insert(stepRecords).values({ unitId: many.id, planStepId: step, captureId: oldest, reason: "the bench log says so", chosenById: session.current!.id });
+    const view = await getUnitPlanView(many.id);
+    const candidates = view?.steps.find((s) => s.id === step)?.candidates.map((c) => c.id) ?? [];
+    expect(candidates.slice(0, RECORD_CANDIDATES)).toEqual(made.slice(-RECORD_CANDIDATES).reverse());
+    expect(candidates).toHaveLength(RECORD_CANDIDATES + 1);
+    expect(candidates.at(-1)).toBe(oldest);
+    expect(view?.steps.find((s) => s.id === step)?.record?.id).toBe(oldest);
   });
 });

@@ -1,3 +1,4 @@
+import Link from "next/link";
 import { notFound } from "next/navigation";
 import { UnitCapturesTable } from "@/components/captures/unit-captures-table";
 import { PageHeader } from "@/components/shell/page-header";
@@ -17,6 +18,11 @@ import { UnitHistory } from "./_components/unit-history";
 import { ReleasePanel } from "./_components/release-panel";
 import { requirePageActor } from "@/lib/dal/actor";
 import { UnitNotes } from "./_components/unit-notes";
+
+/** Captures the unit page lists (newest first); the captures list, searched by serial, has them all. */
+const UNIT_PAGE_CAPTURES = 50;
+/** How many listCapturesForUnit reads at most. */
+const UNIT_CAPTURES_READ = 200;
 
 export default async function UnitPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
@@ -53,7 +59,12 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
       ) : null}
       <section aria-labelledby="captures" className="mt-6 rounded-lg bg-white p-5 shadow-sm ring-1 ring-ink-200">
         <h2 id="captures" className="mb-3 font-semibold">Captures</h2>
-        <UnitCapturesTable rows={captureRows} />
+        <UnitCapturesTable rows={captureRows.slice(0, UNIT_PAGE_CAPTURES)} />
+        {captureRows.length > UNIT_PAGE_CAPTURES ? (
+          <p className="mt-2 text-sm text-ink-600" data-testid="unit-captures-capped">
+            The latest {UNIT_PAGE_CAPTURES} of {captureRows.length >= UNIT_CAPTURES_READ ? `at least ${UNIT_CAPTURES_READ}` : captureRows.length} captures. <Link href={`/captures?q=${encodeURIComponent(unit.serial)}`}>All of this unit&apos;s captures</Link>
+          </p>
+        ) : null}
       </section>
       <ReleasePanel unitId={unit.id} />
       <UnitAttachments unitId={unit.id} />
