@@ -1,12 +1,12 @@
 import "server-only";
 import { z } from "zod";
 import { deleteAttachmentRecord, getAttachment, listUnitAttachments } from "@/db/queries/attachments";
-import { getUnit } from "@/db/queries/units";
 import type { Role } from "@/db/schema";
 import { HttpError, requireUser } from "@/lib/auth/guards";
 import type { SessionUser } from "@/lib/auth/options";
 import { isLabRole } from "@/lib/auth/roles";
 import { deleteStoredFiles } from "@/lib/server/uploadthing";
+import { unitInScope } from "./request-reads";
 import { scopeFor } from "./scope";
 
 // Who may do what with a unit's attachments. Lab staff of the testing lab upload and read; lab
@@ -36,7 +36,7 @@ export async function getUnitAttachmentsView(unitId: string) {
 /** For the upload route's middleware: the unit, if this user may attach files to it. */
 export async function authorizeAttachmentUpload(user: SessionUser, unitId: string) {
   if (!canUploadAttachments(user.role)) throw new HttpError(403, "Only lab staff may attach files to a unit.");
-  const found = isUuid(unitId) ? await getUnit(scopeFor(user), unitId) : undefined;
+  const found = isUuid(unitId) ? await unitInScope(scopeFor(user), unitId) : undefined;
   if (!found) throw new HttpError(404, "No such unit.");
   return found.unit;
 }

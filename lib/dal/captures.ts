@@ -1,6 +1,6 @@
 import "server-only";
 import { getCurrentAnalysis, listAnalysisHistory } from "@/db/queries/analyses";
-import { getCaptureDetail, listCapturesForUnit } from "@/db/queries/captures";
+import { getCaptureDetail } from "@/db/queries/captures";
 import { getUnitBySerial, listRatingsForRegistration } from "@/db/queries/units";
 import type { AnalysisReport } from "@/lib/analysis";
 import { HttpError } from "@/lib/auth/guards";
@@ -9,6 +9,7 @@ import { getEnv } from "@/lib/server/env";
 import { presignVerifiedDownload } from "@/lib/server/storage";
 import { listActivePlanSteps } from "@/db/queries/judgement";
 import { requirePageActor, type Actor } from "./actor";
+import { unitCapturesInScope } from "./request-reads";
 import { getCaptureCorrections } from "./capture-corrections";
 import { getCaptureInstruments, type CaptureInstrumentsSummary } from "./capture-instruments";
 
@@ -106,7 +107,7 @@ export async function getCaptureDownloadUrl(actor: Actor, captureId: string): Pr
 export async function getUnitCapturesBySerial(actor: Actor, serial: string) {
   const found = await getUnitBySerial(actor.scope, serial);
   if (!found) return null;
-  const rows = await listCapturesForUnit(actor.scope, found.unit.id);
+  const rows = await unitCapturesInScope(actor.scope, found.unit.id);
   return {
     id: found.unit.id, serial: found.unit.serial, owner: found.owner, disposition: found.unit.disposition,
     latestOverall: found.unit.latestOverall, latestCaptureAt: found.unit.latestCaptureAt?.toISOString() ?? null,
@@ -134,7 +135,7 @@ export async function getCapturePageView(captureId: string) {
 /** The unit page's captures list; the unit itself was already checked by the caller's scope. */
 export async function getUnitCaptureRows(unitId: string) {
   const actor = await requirePageActor();
-  const rows = await listCapturesForUnit(actor.scope, unitId);
+  const rows = await unitCapturesInScope(actor.scope, unitId);
   return rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() }));
 }
 

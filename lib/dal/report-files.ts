@@ -2,12 +2,13 @@ import "server-only";
 import { z } from "zod";
 import { findReport, listUnitReports } from "@/db/queries/reports";
 import { HttpError } from "@/lib/auth/guards";
-import { getUnit } from "@/db/queries/units";
-import { gatherReportInputs, missingPlanSteps } from "@/lib/server/reports/gather";
+import { listActivePlanSteps } from "@/db/queries/judgement";
+import { gatherReportInputs, missingStepNames } from "@/lib/server/reports/gather";
 import { renderDraft } from "@/lib/server/reports/render";
 import { readReportPdf, sha256Hex } from "@/lib/server/report-store";
 import { SIGNING_ROLES } from "@/lib/reports/signature-meanings";
 import type { Actor } from "./actor";
+import { unitInScope, unitPlanInScope } from "./request-reads";
 
 // Reading reports: the stored bytes of a released revision (checked against the recorded sha256, never
 // rendered again), the lab's draft, and the unit page's list of revisions.
@@ -46,10 +47,11 @@ export type ReleasePanelView = {
 /** What the unit page's release panel shows; null for clients (they read released reports in their portal). */
 export async function getReleasePanelView(actor: Actor, unitId: string): Promise<ReleasePanelView | null> {
   if (actor.scope.kind !== "lab" || !z.uuid().safeParse(unitId).success) return null;
-  const found = await getUnit(actor.scope, unitId);
+  const found = await unitInScope(actor.scope, unitId);
   if (!found) return null;
-  const [missingSteps, rows] = await Promise.all([missingPlanSteps(actor.scope.labId, unitId, found.unit.ratingId), listUnitReports(actor.scope, unitId)]);
-  if (!missingSteps) return null;
+  const [plan, steps, rows] = await Promise.all([unitPlanInScope(actor.scope, unitId), listActivePlanSteps(found.unit.ratingId), listUnitReports(actor.scope, unitId)]);
+  if (!plan) return null;
+  const missingSteps = missingStepNames(plan, steps);
   return {
     canSign: actor.role !== "station" && SIGNING_ROLES.release.includes(actor.role),
     missingSteps,

@@ -1,14 +1,14 @@
 import "server-only";
 import { z } from "zod";
-import { listCapturesForUnit } from "@/db/queries/captures";
 import { listActivePlanSteps } from "@/db/queries/judgement";
 import { chooseStepRecord, clearStepRecord } from "@/db/queries/step-records";
-import { evaluateUnitPlan, refreshUnitPlanState } from "@/db/queries/unit-plan";
+import { refreshUnitPlanState } from "@/db/queries/unit-plan";
 import { TEST_KIND_LABELS } from "@/lib/captures/input-schemas";
 import { CHECK_LABELS, type StepStatus } from "@/lib/analysis";
 import { HttpError, requireUser } from "@/lib/auth/guards";
 import type { Actor } from "./actor";
 import { scopeFor } from "./scope";
+import { unitCapturesInScope, unitPlanInScope } from "./request-reads";
 
 export const stepRecordSchema = z.object({
   unitId: z.uuid(),
@@ -28,9 +28,9 @@ export async function getUnitPlanView(unitId: string) {
   const user = await requireUser();
   if (!z.uuid().safeParse(unitId).success) return null;
   const scope = scopeFor(user);
-  const evaluation = await evaluateUnitPlan(scope, unitId);
+  const evaluation = await unitPlanInScope(scope, unitId);
   if (!evaluation) return null;
-  const [steps, captures] = await Promise.all([listActivePlanSteps(evaluation.ratingId), listCapturesForUnit(scope, unitId)]);
+  const [steps, captures] = await Promise.all([listActivePlanSteps(evaluation.ratingId), unitCapturesInScope(scope, unitId)]);
   const names = new Map(captures.map((c) => [c.id, c.originalName]));
   const byStep = new Map(evaluation.steps.map((s) => [s.stepId, s]));
   return {

@@ -1,7 +1,8 @@
 import "server-only";
 import { z } from "zod";
-import { countUnitsByOverall, getUnit, listRatingsForRegistration, listUnits } from "@/db/queries/units";
+import { countUnitsByOverall, listRatingsForRegistration, listUnits } from "@/db/queries/units";
 import { requireUser } from "@/lib/auth/guards";
+import { unitInScope } from "./request-reads";
 import { scopeFor } from "./scope";
 
 export const unitListQuerySchema = z.object({
@@ -24,7 +25,7 @@ export async function getUnitListView(query: UnitListQuery) {
 export async function getUnitView(unitId: string) {
   const user = await requireUser();
   if (!z.uuid().safeParse(unitId).success) return null;
-  const found = await getUnit(scopeFor(user), unitId);
+  const found = await unitInScope(scopeFor(user), unitId);
   return found ?? null;
 }
 

@@ -2,7 +2,7 @@ import "server-only";
 import { getProfileInForce, listActivePlanSteps } from "@/db/queries/judgement";
 import { loadCaptureInstruments, loadRecordCaptures, loadReportRemarks, loadReportUnit } from "@/db/queries/report-inputs";
 import { evaluateUnitPlan } from "@/db/queries/unit-plan";
-import { analysisReportSchema, ratingSchema, toleranceProfileSchema } from "@/lib/analysis";
+import { analysisReportSchema, ratingSchema, toleranceProfileSchema, type PlanEvaluation } from "@/lib/analysis";
 import { TEST_KIND_LABELS } from "@/lib/captures/input-schemas";
 import type { ContentInput, RecordCapture } from "@/lib/reports/build-content";
 import { parsePlotData, type PlotData } from "@/lib/reports/pdf/plots";
@@ -69,10 +69,8 @@ export async function gatherReportInputs(labId: string, unitId: string): Promise
   };
 }
 
-/** The plan steps without a capture of record, without reading any analysis (for the unit page). */
-export async function missingPlanSteps(labId: string, unitId: string, ratingId: string): Promise<string[] | null> {
-  const [plan, steps] = await Promise.all([evaluateUnitPlan({ kind: "lab", labId }, unitId), listActivePlanSteps(ratingId)]);
-  if (!plan) return null;
+/** The names of the plan's steps without a capture of record (the unit page's release panel). */
+export function missingStepNames(plan: PlanEvaluation, steps: readonly { id: string; name: string }[]): string[] {
   if (steps.length === 0) return ["(the rating has no test plan)"];
   const recorded = new Set(plan.steps.filter((s) => s.record).map((s) => s.stepId));
   return steps.filter((s) => !recorded.has(s.id)).map((s) => s.name);
