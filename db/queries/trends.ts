@@ -1,4 +1,4 @@
-import { and, asc, eq, sql } from "drizzle-orm";
+import { and, asc, eq, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import {
   analysisFigures, captureInstruments, captures, instruments, organisations, planSteps, ratings, stations, stepRecords, testKind, units,
@@ -63,22 +63,34 @@ export async function listTrendFigures(labId: string, ratingId: string): Promise
  * judges the check, else the latest capture judged for such a step, else the latest valid capture
  * (a value, not flagged), else the latest one. Filters narrow the captures before the pick.
  *
- * One pick per unit of the rating, each from its own short range of analysis_figures_record_idx (every
- * column the pick needs is in the index, and the step a row was judged for is on the row).
+ * Per unit, the tiers are tried in that order, each a backward scan of the unit's short range of
+ * analysis_figures_record_idx that stops at its first row (every column the pick needs is in the
+ * index, and the step a row was judged for is on the row); `limit 1` over the `union all` stops at
+ * the first tier that has one, so a typical unit costs one or two index probes, not a sort of all
+ * its captures.
  */
 export async function listFigureOfRecord(labId: string, key: TrendSeriesKey, filters: TrendFilters, limit = 5000) {
   const f = analysisFigures;
-  const fromStep = sql`(${f.planStepId} in (select id from steps)) is true`;
   const needsCapture = Boolean(filters.testKind || filters.stationId);
-  const filtersSql = [
-    filters.from ? sql` and ${f.measuredAt} >= ${filters.from.toISOString()}` : sql``,
-    filters.to ? sql` and ${f.measuredAt} < ${filters.to.toISOString()}` : sql``,
-    filters.testKind ? sql` and fc.test_kind = ${filters.testKind}` : sql``,
-    filters.stationId ? sql` and fc.station_id = ${filters.stationId}` : sql``,
-    filters.instrumentId
-      ? sql` and exists (select 1 from ${captureInstruments} ci where ci.capture_id = ${f.captureId} and ci.instrument_id = ${filters.instrumentId})`
-      : sql``,
-  ];
+  const range = sql`${f.ratingId} = ${key.ratingId} and ${f.figure} = ${key.figure} and ${f.harmonicOrder} = ${key.harmonicOrder} and ${f.unitId} = u.id
+    and ${f.current} and ${f.labId} = ${labId}${sql.join([
+      filters.from ? sql` and ${f.measuredAt} >= ${filters.from.toISOString()}` : sql``,
+      filters.to ? sql` and ${f.measuredAt} < ${filters.to.toISOString()}` : sql``,
+      filters.testKind ? sql` and fc.test_kind = ${filters.testKind}` : sql``,
+      filters.stationId ? sql` and fc.station_id = ${filters.stationId}` : sql``,
+      filters.instrumentId
+        ? sql` and exists (select 1 from ${captureInstruments} ci where ci.capture_id = ${f.captureId} and ci.instrument_id = ${filters.instrumentId})`
+        : sql``,
+    ])}`;
+  const valid = sql`${f.value} is not null and not ${f.flagged}`;
+  const fromStep = sql`${f.planStepId} in (select id from steps)`;
+  const tier = (fromStepValue: boolean, where: SQL, order: SQL) => sql`(select ${f.captureId} as capture_id, ${f.measuredAt} as measured_at,
+      ${f.value} as value, ${f.status} as status, ${f.flagged} as flagged, ${f.expandedUncertainty} as expanded_uncertainty, ${sql.raw(String(fromStepValue))} as from_step
+    from ${f}${needsCapture ? sql` join ${captures} fc on fc.id = ${f.captureId}` : sql``}
+    where ${range} and ${where} order by ${order} limit 1)`;
+  const latest = sql`${f.measuredAt} desc`;
+  const chosen = sql`exists (select 1 from ${stepRecords} sr where sr.unit_id = u.id and sr.plan_step_id in (select id from steps))
+    and (${f.planStepId}, ${f.captureId}) in (select sr.plan_step_id, sr.capture_id from ${stepRecords} sr where sr.unit_id = u.id) and ${fromStep}`;
   const result = await getDb().execute<{
     unit_id: string; serial: string; capture_id: string; measured_at: string | Date; value: number | null; status: AnalysisFigure["status"]; flagged: boolean;
     expanded_uncertainty: number | null; test_kind: Capture["testKind"]; station_name: string | null; client_name: string; from_step: boolean;
@@ -91,15 +103,13 @@ export async function listFigureOfRecord(labId: string, key: TrendSeriesKey, fil
       c.test_kind, st.name as station_name, o.name as client_name
     from ${units} u
     cross join lateral (
-      select ${f.captureId} as capture_id, ${f.measuredAt} as measured_at, ${f.value} as value, ${f.status} as status, ${f.flagged} as flagged,
-        ${f.expandedUncertainty} as expanded_uncertainty, ${fromStep} as from_step
-      from ${f}
-      ${needsCapture ? sql`join ${captures} fc on fc.id = ${f.captureId}` : sql``}
-      where ${f.ratingId} = ${key.ratingId} and ${f.figure} = ${key.figure} and ${f.harmonicOrder} = ${key.harmonicOrder} and ${f.unitId} = u.id and ${f.current}
-        and ${f.labId} = ${labId}${sql.join(filtersSql)}
-      order by exists (select 1 from ${stepRecords} sr where sr.unit_id = u.id and sr.plan_step_id = ${f.planStepId} and sr.capture_id = ${f.captureId}) desc,
-        ${fromStep} desc, (${f.value} is not null and not ${f.flagged}) desc, ${f.measuredAt} desc
-      limit 1
+      select * from (
+        ${tier(true, chosen, sql`(${valid}) desc, ${latest}`)}
+        union all ${tier(true, sql`${fromStep} and ${valid}`, latest)}
+        union all ${tier(true, fromStep, latest)}
+        union all ${tier(false, valid, latest)}
+        union all ${tier(false, sql`true`, latest)}
+      ) tiers limit 1
     ) p
     join ${captures} c on c.id = p.capture_id
     join ${organisations} o on o.id = u.organisation_id

@@ -86,6 +86,10 @@ beforeAll(async () => {
   units_.E = (await unit("E")).id; caps.E = (await analysed(units_.E, { lineV: 4.0, at: "2026-02-18T09:00:00Z" })).id;
   // F: only a load capture (test-kind filter).
   units_.F = (await unit("F")).id; caps.F = (await analysed(units_.F, { lineV: 400, at: "2026-02-22T09:00:00Z", kind: "load" })).id;
+  // G, in January: a valid capture for the step, then a newer flagged one for it (a 1:100 probe).
+  units_.G = (await unit("G")).id;
+  caps.G = (await analysed(units_.G, { lineV: 403, at: "2026-01-10T09:00:00Z" })).id;
+  caps.Gflagged = (await analysed(units_.G, { lineV: 4.03, at: "2026-01-12T09:00:00Z" })).id;
 }, 120_000);
 
 afterAll(closeConnections);
@@ -96,9 +100,11 @@ describe("getTrendView: figure of record per unit", () => {
   it("getTrendView returns one point per unit: the step's latest, the chosen record, else the latest valid", async () => {
     const view = await getTrendView(q());
     const points = bySerial(view);
-    expect(Object.keys(points).sort()).toEqual(["A", "B", "C", "D", "E", "F"]);
+    expect(Object.keys(points).sort()).toEqual(["A", "B", "C", "D", "E", "F", "G"]);
     expect(points.C?.captureId).toBe(caps.C); // the step's record, not the newer unplanned capture
     expect(points.D?.captureId).toBe(caps.Dold); // the quality engineer's choice
+    expect(points.G?.captureId).toBe(caps.G); // the step's latest valid, not its newer flagged capture
+    expect(points.E?.captureId).toBe(caps.E); // flagged, but the unit has nothing else
     // Voltage is the mean line-line true RMS of a clean synthetic set: 401 V within 0.05 V (construction).
     expect(Math.abs((points.A?.value ?? 0) - 401)).toBeLessThan(0.05);
   });
@@ -108,7 +114,7 @@ describe("getTrendView: figure of record per unit", () => {
     const points = bySerial(view);
     expect(points.E?.flagged).toBe(true); // implausible voltage alert: 100 times low
     const counted = view.points.filter((p) => !p.flagged).map((p) => p.value);
-    expect(view.summary?.n).toBe(5);
+    expect(view.summary?.n).toBe(6);
     // Same statistics as the pure module over the unflagged points in serial order (lib/analysis/spc.ts, checked against numpy).
     expect(view.summary?.mean).toBeCloseTo(summariseSeries(counted, { lower: view.band!.lower, upper: view.band!.upper })!.mean, 12);
     expect(view.band).toMatchObject({ unit: "V" });
