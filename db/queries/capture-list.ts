@@ -1,7 +1,7 @@
-import { and, asc, desc, eq, ilike, isNull, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, ilike, inArray, isNull, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, captures, units, type CaptureState } from "@/db/schema";
-import type { CaptureSort } from "@/lib/captures/list-query";
+import type { CaptureSort, ListPlace } from "@/lib/captures/list-query";
 import { unitScopeWhere, type Scope } from "./scope";
 
 export type CaptureListFilter = {
@@ -14,6 +14,10 @@ export type CaptureListFilter = {
   dir: "asc" | "desc";
   limit: number;
   offset: number;
+  /** Sorted on capture time: the rows after this place (the next page), instead of the offset. */
+  after?: ListPlace;
+  /** Sorted on capture time: the rows just before this place (the previous page). */
+  before?: ListPlace;
 };
 
 const SORT_COLUMNS = {
@@ -30,6 +34,8 @@ const columns = {
   speedRpm: captures.speedRpm, createdAt: captures.createdAt, overall: analyses.overall,
   frequencyHz: analyses.frequencyHz, worstThdPercent: analyses.worstThdPercent, vufPercent: analyses.vufPercent,
   keLineRmsPerKrpm: analyses.keLineRmsPerKrpm,
+  /** The row's place for the next page's cursor: the capture time to the microsecond (a Date keeps milliseconds). */
+  place: sql<string>`to_char(${captures.createdAt} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"') || '~' || ${captures.id}`,
 };
 const currentAnalysis = and(eq(analyses.captureId, captures.id), eq(analyses.current, true));
 
@@ -54,6 +60,15 @@ export async function listCapturePage(scope: Scope, filter: CaptureListFilter) {
   // Captures without the figure go last either way.
   const order = filter.sort === "captured" ? (filter.dir === "asc" ? asc(captures.createdAt) : desc(captures.createdAt))
     : filter.dir === "asc" ? sql`${column} asc nulls last` : sql`${column} desc nulls last`;
+  if (filter.sort === "captured" && (filter.after || filter.before)) return placePage(where, filter);
+  if (filter.sort === "captured" && !filter.overall) {
+    // The page's ids first, without the analyses join, then the page itself: a deep page (an offset of
+    // thousands) then skips index entries instead of joining every skipped capture to its analysis.
+    const page = db.select({ id: captures.id }).from(captures).innerJoin(units, eq(units.id, captures.unitId))
+      .where(and(...where)).orderBy(order, ...newest).limit(filter.limit).offset(filter.offset);
+    return db.select(columns).from(captures).innerJoin(units, eq(units.id, captures.unitId)).leftJoin(analyses, currentAnalysis)
+      .where(inArray(captures.id, page)).orderBy(order, ...newest);
+  }
   if (filter.sort === "captured" || filter.overall === "unjudged") {
     return db.select(columns).from(captures).innerJoin(units, eq(units.id, captures.unitId)).leftJoin(analyses, currentAnalysis)
       .where(and(...where)).orderBy(order, ...newest).limit(filter.limit).offset(filter.offset);
@@ -69,4 +84,25 @@ export async function listCapturePage(scope: Scope, filter: CaptureListFilter) {
     .where(and(...where, isNull(analyses.id))).orderBy(...newest)
     .limit(filter.limit - judged.length).offset(Math.max(0, filter.offset - judgedTotal));
   return [...judged, ...rest];
+}
+
+/**
+ * A page by capture time from a place (keyset paging): the index on capture time starts at the place,
+ * so page 2 000 costs what page 1 does. The order is capture time (either way) then id ascending; the
+ * rows before a place are read in the reverse order and turned round.
+ */
+async function placePage(where: SQL[], filter: CaptureListFilter) {
+  const place = (filter.after ?? filter.before)!;
+  const at = sql`${place.at}::timestamptz`;
+  const forward = filter.after !== undefined;
+  // Newest first, "after" is older: earlier time, or the same time and a greater id.
+  const later = (filter.dir === "desc") !== forward;
+  const beyond = later
+    ? sql`${captures.createdAt} >= ${at} and (${captures.createdAt} > ${at} or ${captures.id} ${forward ? sql`>` : sql`<`} ${place.id})`
+    : sql`${captures.createdAt} <= ${at} and (${captures.createdAt} < ${at} or ${captures.id} ${forward ? sql`>` : sql`<`} ${place.id})`;
+  const rows = await getDb().select(columns).from(captures).innerJoin(units, eq(units.id, captures.unitId)).leftJoin(analyses, currentAnalysis)
+    .where(and(...where, beyond))
+    .orderBy(later ? asc(captures.createdAt) : desc(captures.createdAt), forward ? asc(captures.id) : desc(captures.id))
+    .limit(filter.limit);
+  return forward ? rows : rows.reverse();
 }

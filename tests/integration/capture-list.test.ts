@@ -1,10 +1,10 @@
-import { eq } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, getDb } from "@/db/client";
 import { listCapturePage, type CaptureListFilter } from "@/db/queries/capture-list";
 import { insertUnitOnce } from "@/db/queries/units";
 import { analyses, captures, ratings, type CaptureState } from "@/db/schema";
-import { captureListQuerySchema } from "@/lib/captures/list-query";
+import { captureListQuerySchema, placeOf } from "@/lib/captures/list-query";
 import { seededOrgs } from "./helpers";
 
 // Captures inserted straight into the tables: the list must filter and sort on the stored columns.
@@ -88,6 +88,56 @@ describe("listCapturePage", () => {
   });
 });
 
+describe("listCapturePage from a place (keyset paging)", () => {
+  // Nine captures of one unit; four share one capture time to the microsecond, two another, so the id
+  // must break the ties and a cursor must keep the microseconds a JavaScript Date would drop.
+  const times = ["10:00:00.000001", "10:00:00.123456", "10:00:00.123456", "10:00:00.123456", "10:00:00.123456", "10:00:00.123457",
+    "10:00:01.500000", "10:00:01.500000", "10:00:02.000000"];
+  const serial = `${tag.replace("CL", "KP")}-K`; // not matched by the other tests' search
+  beforeAll(async () => {
+    const rating = (await getDb().select().from(ratings).where(eq(ratings.organisationId, kestrumId)).limit(1))[0]!;
+    const unit = await insertUnitOnce({ kind: "lab", labId }, { serial, ratingId: rating.id, organisationId: kestrumId });
+    for (const [i, t] of times.entries()) {
+      await getDb().insert(captures).values({
+        unitId: unit.id, labId, testKind: "no-load", originalName: `${tag}-k${i}.csv`, objectKey: `test/${tag}/k${i}`, sizeBytes: 100,
+        sha256: `${tag}-k${i}`.padEnd(64, "1"), state: "rejected", createdAt: sql`${`2026-01-05 ${t}+00`}::timestamptz` as unknown as Date,
+      });
+    }
+  });
+
+  const walk = async (dir: "asc" | "desc", size: number) => {
+    const filter: CaptureListFilter = { search: serial, sort: "captured", dir, limit: size, offset: 0 };
+    const whole = await listCapturePage(lab(), { ...filter, limit: 100 });
+    expect(whole).toHaveLength(times.length);
+    // Forward from the first page by the last row's place, then back from the end by the first row's.
+    const pages = [await listCapturePage(lab(), filter)];
+    while (pages.at(-1)!.length === size) pages.push(await listCapturePage(lab(), { ...filter, after: placeOf(pages.at(-1)!.at(-1)!.place) }));
+    const back = [pages.findLast((p) => p.length > 0)!];
+    while (back[0]!.length > 0 && back[0]![0]!.id !== whole[0]!.id) back.unshift(await listCapturePage(lab(), { ...filter, before: placeOf(back[0]![0]!.place) }));
+    return { whole: names(whole), forward: names(pages.flat()), backward: names(back.flat()), pageCount: pages.length };
+  };
+
+  it("walks newest first and oldest first, forward and back, without skipping or repeating a row among equal times", async () => {
+    for (const dir of ["desc", "asc"] as const) {
+      for (const size of [1, 2, 3, 4]) {
+        const { whole, forward, backward } = await walk(dir, size);
+        expect(forward, `${dir} by ${size}`).toEqual(whole);
+        expect(backward, `${dir} by ${size}, back`).toEqual(whole);
+      }
+    }
+    const { whole } = await walk("desc", 3);
+    expect(whole[0]).toBe(`${tag}-k8.csv`);
+    expect(whole.at(-1)).toBe(`${tag}-k0.csv`);
+  });
+
+  it("gives the same page by place as by offset", async () => {
+    const filter: CaptureListFilter = { search: serial, sort: "captured", dir: "desc", limit: 3, offset: 0 };
+    const first = await listCapturePage(lab(), filter);
+    expect(names(await listCapturePage(lab(), { ...filter, after: placeOf(first.at(-1)!.place) })))
+      .toEqual(names(await listCapturePage(lab(), { ...filter, offset: 3 })));
+  });
+});
+
 describe("captureListQuerySchema", () => {
   it("reads a query string with defaults, and refuses unknown sorts and states", () => {
     expect(captureListQuerySchema.parse({})).toEqual({ sort: "captured", dir: "desc", page: 1 });
@@ -95,5 +145,11 @@ describe("captureListQuerySchema", () => {
     expect(captureListQuerySchema.safeParse({ sort: "price" }).success).toBe(false);
     expect(captureListQuerySchema.safeParse({ state: "lost" }).success).toBe(false);
     expect(captureListQuerySchema.safeParse({ page: "0" }).success).toBe(false);
+    const place = "2026-01-05T10:00:00.123456Z~0b7e3f4a-1c2d-4e5f-8a9b-0c1d2e3f4a5b";
+    expect(captureListQuerySchema.parse({ after: place }).after).toBe(place);
+    for (const bad of ["2026-01-05T10:00:00Z~0b7e3f4a-1c2d-4e5f-8a9b-0c1d2e3f4a5b", "2026-01-05T10:00:00.123456Z", "'; select 1 --", `${place}x`]) {
+      expect(captureListQuerySchema.safeParse({ after: bad }).success, bad).toBe(false);
+      expect(captureListQuerySchema.safeParse({ before: bad }).success, bad).toBe(false);
+    }
   });
 });

@@ -27,6 +27,9 @@ export default async function CapturesPage({ searchParams }: { searchParams: Pro
     }
     return `/captures${p.size ? `?${p}` : ""}`;
   };
+  // By capture time the neighbours are read from this page's first or last row; page 1 needs no place.
+  const previous = view.page <= 2 || !view.before ? link({ page: Math.max(1, view.page - 1), after: undefined, before: undefined })
+    : link({ page: view.page - 1, before: view.before, after: undefined });
   const filtered = Boolean(query.q || query.state || query.overall || query.kind);
   return (
     <>
@@ -41,9 +44,9 @@ export default async function CapturesPage({ searchParams }: { searchParams: Pro
         <CaptureListTable rows={view.rows} query={query} link={link} />
       )}
       <div className="mt-4 flex gap-4 text-sm">
-        {view.page > 1 ? <Link href={link({ page: view.page - 1 })}>← Previous</Link> : null}
-        {view.hasMore ? <Link href={link({ page: view.page + 1 })}>Next →</Link> : null}
-        {view.page > 1 || view.hasMore ? <span className="text-ink-600">Page {view.page}</span> : null}
+        {view.hasPrevious ? <Link href={previous}>← Previous</Link> : null}
+        {view.hasMore ? <Link href={link({ page: view.page + 1, after: view.after, before: undefined })}>Next →</Link> : null}
+        {view.hasPrevious || view.hasMore ? <span className="text-ink-600">Page {view.page}</span> : null}
       </div>
     </>
   );

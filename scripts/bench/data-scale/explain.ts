@@ -4,6 +4,7 @@
  * (pg's Client.query, wrapped), then prints EXPLAIN (ANALYZE, BUFFERS) of the three slowest.
  */
 import pg from "pg";
+import { placeOf } from "@/lib/captures/list-query";
 import { listCapturePage } from "@/db/queries/capture-list";
 import { getCaptureDetail, listCapturesForUnit } from "@/db/queries/captures";
 import { closeDb } from "@/db/queries/connection";
@@ -65,12 +66,16 @@ try {
   const client: Scope = { kind: "manufacturer", organisationId: id.client };
   const latest = (await listCapturesForUnit(lab, id.unit))[0]?.id ?? "";
   const page = { sort: "captured" as const, dir: "desc" as const, limit: 51, offset: 0 };
+  // Page 199's last row: where page 200's "Next" link starts.
+  const last199 = (await listCapturePage(lab, { ...page, limit: 1, offset: 199 * 50 - 1 }))[0];
+  const place200 = last199 ? placeOf(last199.place) : undefined;
   const calls: [string, () => Promise<unknown>][] = [
     ["units list", () => listUnits(lab, { limit: 51 })],
     ["home counts", () => countUnitsByOverall(lab)],
     ["captures list", () => listCapturePage(lab, page)],
     ["captures by THD", () => listCapturePage(lab, { ...page, sort: "thd" })],
     ["captures page 200", () => listCapturePage(lab, { ...page, offset: 199 * 50 })],
+    ["captures page 200 by place", () => listCapturePage(lab, { ...page, after: place200 })],
     ["client captures", () => listCapturePage(client, page)],
     ["client units", () => listUnits(client, { limit: 51 })],
     ["unit captures", () => listCapturesForUnit(lab, id.unit)],

@@ -27,6 +27,9 @@ async function sampleIds() {
       capture: await q("select c.id from captures c join units u on u.id = c.unit_id where u.serial = (select serial from units where serial like 'SC%' order by serial offset (select count(*) / 2 from units where serial like 'SC%') limit 1) order by c.created_at desc limit 1"),
       rating: await q("select r.id from ratings r join units u on u.rating_id = r.id where u.serial = (select serial from units where serial like 'SC%' order by serial offset (select count(*) / 2 from units where serial like 'SC%') limit 1)"),
       instrument: await q("select id from instruments where asset_tag = 'HG-OSC-07'"),
+      // The place of the last row of page 199, as that page's "Next" link carries it (db/queries/capture-list.ts).
+      place200: await q(`select to_char(c.created_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"') || '~' || c.id as id from captures c
+        where c.lab_id = (select u.lab_id from units u where u.serial like 'SC%' limit 1) order by c.created_at desc, c.id asc offset 199 * 50 - 1 limit 1`),
       clientUnit: await q("select u.id from units u join organisations o on o.id = u.organisation_id where o.slug = 'kestrum' and u.serial like 'SC%' order by u.serial desc limit 1"),
     };
   } finally {
@@ -46,6 +49,7 @@ export async function listTargets(): Promise<Target[]> {
     { name: "captures by THD", path: "/captures?sort=thd", who: "manager" },
     { name: "captures failed", path: "/captures?state=failed", who: "manager" },
     { name: "captures page 200", path: "/captures?page=200", who: "manager" },
+    { name: "captures page 200 by Next", path: `/captures?page=200&after=${encodeURIComponent(id.place200)}`, who: "manager" },
     { name: "capture page", path: `/captures/${id.capture}`, who: "manager" },
     { name: "review queue", path: "/review", who: "qa" },
     { name: "trends", path: "/trends", who: "manager" },

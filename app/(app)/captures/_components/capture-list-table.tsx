@@ -15,7 +15,7 @@ function SortHeader({ label, sort, query, link }: { label: string; sort: Capture
   const nextDir = active && query.dir === "desc" ? "asc" : "desc";
   return (
     <th className="px-3 py-2" aria-sort={active ? (query.dir === "asc" ? "ascending" : "descending") : undefined}>
-      <Link href={link({ sort, dir: nextDir, page: 1 })} className="text-ink-600 no-underline hover:underline">
+      <Link href={link({ sort, dir: nextDir, page: 1, after: undefined, before: undefined })} className="text-ink-600 no-underline hover:underline">
         {label}{active ? (query.dir === "asc" ? " ↑" : " ↓") : ""}
       </Link>
     </th>
