@@ -1,6 +1,7 @@
 import { and, desc, eq, gte, ilike, inArray, lt, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { labClients, organisations, ratings, reports, units } from "@/db/schema";
+import type { PgSelect } from "drizzle-orm/pg-core";
 
 // Released reports as a client reads them: its own (reports.client_id), from labs it is linked to.
 
@@ -24,20 +25,17 @@ function clientWhere(clientId: string): SQL {
 
 const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 
-function base() {
-  return getDb().select(columns).from(reports)
+/** A released report with its unit, rating and lab: the joins every portal read shares. */
+function withUnitRatingLab<T extends PgSelect>(query: T) {
+  return query
     .innerJoin(units, eq(units.id, reports.unitId))
     .innerJoin(ratings, eq(ratings.id, units.ratingId))
     .innerJoin(organisations, eq(organisations.id, reports.labId));
 }
 
-// The same joins as base(), without the bulky columns (drizzle's select types do not take a generic column set).
-function listBase() {
-  return getDb().select(listColumns).from(reports)
-    .innerJoin(units, eq(units.id, reports.unitId))
-    .innerJoin(ratings, eq(ratings.id, units.ratingId))
-    .innerJoin(organisations, eq(organisations.id, reports.labId));
-}
+const base = () => withUnitRatingLab(getDb().select(columns).from(reports).$dynamic());
+/** Without the bulky columns (content, object key): the list. */
+const listBase = () => withUnitRatingLab(getDb().select(listColumns).from(reports).$dynamic());
 
 export type PortalReportRow = Awaited<ReturnType<typeof getClientReports>>[number];
 export type PortalListRow = Awaited<ReturnType<typeof listClientReports>>[number];

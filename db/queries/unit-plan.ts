@@ -5,11 +5,14 @@ import { evaluatePlan, keInBasis, ratingSchema, toleranceProfileSchema, type Ana
 import { getProfileInForce, listActivePlanSteps } from "./judgement";
 import { unitScopeWhere, type Scope } from "./scope";
 
+/** A rating's active plan steps the caller has already read (the review queue reads them per rating). */
+export type KnownSteps = { ratingId: string; steps: Awaited<ReturnType<typeof listActivePlanSteps>> };
+
 /**
  * The unit's standing against its rating's plan, from its captures' current results and recorded choices.
  * Only the back-EMF part of each report is read (a unit can have hundreds of 20 KB reports).
  */
-export async function evaluateUnitPlan(scope: Scope, unitId: string): Promise<(PlanEvaluation & { ratingId: string }) | null> {
+export async function evaluateUnitPlan(scope: Scope, unitId: string, known?: KnownSteps): Promise<(PlanEvaluation & { ratingId: string }) | null> {
   const db = getDb();
   const [found] = await db.select({ unit: units, rating: ratings }).from(units).innerJoin(ratings, eq(ratings.id, units.ratingId))
     .where(and(eq(units.id, unitId), unitScopeWhere(scope))).limit(1);
@@ -20,7 +23,7 @@ export async function evaluateUnitPlan(scope: Scope, unitId: string): Promise<(P
   // Reading a part of a report decompresses the whole of it: only a rating with a Ke basis needs it.
   const backEmf = basis ? sql<AnalysisReport["backEmf"] | null>`${analyses.report} -> 'backEmf'` : sql<null>`null`;
   const [steps, profileRow, rows, choices] = await Promise.all([
-    listActivePlanSteps(found.rating.id),
+    known?.ratingId === found.rating.id ? known.steps : listActivePlanSteps(found.rating.id),
     getProfileInForce(found.rating.id),
     db.select({ id: captures.id, createdAt: captures.createdAt, speedRpm: captures.speedRpm, planStepId: analyses.planStepId, overall: analyses.overall, backEmf })
       .from(captures).innerJoin(analyses, and(eq(analyses.captureId, captures.id), eq(analyses.current, true)))
@@ -47,8 +50,8 @@ export function standingOf(evaluation: PlanEvaluation): StoredStepStanding[] {
  * Recomputes and stores the unit's plan state and standing (after a result, a record choice or a plan
  * change). Returns the standing stored, or null when the unit is not in scope or its rating unreadable.
  */
-export async function refreshUnitPlanState(scope: Scope, unitId: string): Promise<StoredStepStanding[] | null> {
-  const evaluation = await evaluateUnitPlan(scope, unitId);
+export async function refreshUnitPlanState(scope: Scope, unitId: string, known?: KnownSteps): Promise<StoredStepStanding[] | null> {
+  const evaluation = await evaluateUnitPlan(scope, unitId, known);
   if (!evaluation) return null;
   const standing = standingOf(evaluation);
   await getDb().update(units).set({ planState: evaluation.state, planStanding: standing }).where(and(eq(units.id, unitId), unitScopeWhere(scope)));

@@ -49,7 +49,7 @@ export async function getReviewQueueView(actor: Actor, page = 1) {
   // does not cover the rating's active steps, so the queue never shows a stale plan.
   const evaluated = await Promise.all(shown.map(async (row) => {
     const steps = stepsOf.get(row.ratingId) ?? [];
-    const fresh = row.planStanding && sameSteps(row.planStanding, steps) ? row.planStanding : await refreshUnitPlanState(scope, row.id);
+    const fresh = row.planStanding && sameSteps(row.planStanding, steps) ? row.planStanding : await refreshUnitPlanState(scope, row.id, { ratingId: row.ratingId, steps });
     return { row, standing: fresh ?? [], steps };
   }));
   // Verdicts of just the captures shown: the records of failing or inconclusive steps, else the latest.
