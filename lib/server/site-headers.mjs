@@ -12,12 +12,16 @@ export const SECURITY_HEADERS = Object.freeze({
 });
 
 /**
- * Not on attachment downloads: their route sends its own, stricter policy (sandbox), which a
- * second header here would replace.
+ * Not on attachment and calibration-certificate downloads: their routes send their own, stricter
+ * policy (sandbox), which this header would replace (a next.config header overwrites a route
+ * handler's header of the same name).
  */
 export const FRAME_POLICY = Object.freeze({ "Content-Security-Policy": "frame-ancestors 'none'" });
 
-/** What every answer outside /api/attachments/ carries. */
+/** Where the route sends its own Content-Security-Policy (see FRAME_POLICY). */
+export const OWN_POLICY_PATHS = Object.freeze(["api/attachments/", "api/instruments/[^/]+/certificates/"]);
+
+/** What every other answer carries. */
 export const SITE_HEADERS = Object.freeze({ ...SECURITY_HEADERS, ...FRAME_POLICY });
 
 const asList = (headers) => Object.entries(headers).map(([key, value]) => ({ key, value }));
@@ -26,6 +30,6 @@ const asList = (headers) => Object.entries(headers).map(([key, value]) => ({ key
 export function siteHeaderRules() {
   return [
     { source: "/:path*", headers: asList(SECURITY_HEADERS) },
-    { source: "/((?!api/attachments/).*)", headers: asList(FRAME_POLICY) },
+    { source: `/((?!${OWN_POLICY_PATHS.join("|")}).*)`, headers: asList(FRAME_POLICY) },
   ];
 }

@@ -50,6 +50,9 @@ test("an operator attaches a PNG, a client of the unit's organisation reads it, 
   expect(href).toMatch(/^\/api\/attachments\/[0-9a-f-]{36}$/);
   const thumb = await page.request.get(`${href}?disposition=inline`);
   expect(thumb.headers()["content-type"]).toBe("image/png");
+  // The route's own sandbox policy arrives whole: the site's frame policy would replace it (common practice: a
+  // served upload never runs script in the app's origin).
+  expect(thumb.headers()["content-security-policy"]).toMatch(/^sandbox; default-src 'none';/);
   await expect(page.getByRole("button", { name: `Remove ${NAME}` })).toHaveCount(0);
   await signOut(page);
 

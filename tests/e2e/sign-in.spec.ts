@@ -61,11 +61,20 @@ test("the API refuses a request without a session", async ({ request }) => {
 });
 
 test("pages and the API are sent with anti-framing, no-sniff and referrer headers", async ({ request }) => {
-  for (const path of ["/sign-in", "/api/health"]) {
+  for (const path of ["/", "/sign-in", "/api/health"]) {
     const headers = (await request.get(path)).headers();
     expect(headers["x-frame-options"], path).toBe("DENY");
     expect(headers["content-security-policy"], path).toContain("frame-ancestors 'none'");
     expect(headers["x-content-type-options"], path).toBe("nosniff");
     expect(headers["referrer-policy"], path).toBe("same-origin");
+  }
+  // Downloads whose route sends its own sandbox policy get no second one from the site (it would replace
+  // theirs); unsigned they answer 401 without one, and still with X-Frame-Options.
+  const none = "00000000-0000-0000-0000-000000000000";
+  for (const path of [`/api/attachments/${none}`, `/api/instruments/${none}/certificates/${none}`]) {
+    const response = await request.get(path);
+    expect(response.status(), path).toBe(401);
+    expect(response.headers()["content-security-policy"], path).toBeUndefined();
+    expect(response.headers()["x-frame-options"], path).toBe("DENY");
   }
 });
