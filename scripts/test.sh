@@ -68,5 +68,8 @@ wait_for_web "$E2E_BASE_URL" || { tail -30 .data/log/test-web.log; exit 1; }
 node_modules/.bin/tsx --import ./scripts/support/server-only-hook.mjs scripts/seed-captures.ts >.data/log/test-seed-captures.log 2>&1 || { tail -20 .data/log/test-seed-captures.log; exit 1; }
 PLAYWRIGHT_JSON_OUTPUT_NAME="$RESULTS/e2e.json" node_modules/.bin/playwright test --reporter=list,json || status=1
 
+step "two web processes on one port (one killed and replaced)"
+bash scripts/support/web-processes.sh "$((E2E_PORT + 1))" || status=1
+
 node_modules/.bin/tsx scripts/test-summary.ts "$RESULTS"/*.json || status=1
 exit "$status"
