@@ -1,4 +1,6 @@
 import { afterAll, describe, expect, it } from "vitest";
+import { sql } from "drizzle-orm";
+import { getDb } from "@/db/client";
 import { closeDb } from "@/db/queries/connection";
 import { countUnitsByOverall, getUnit, getUnitBySerial, listUnits } from "@/db/queries/units";
 import { demoUnits, secondLab as secondLabSeed } from "@/db/seed-data";
@@ -40,6 +42,29 @@ describe("unit queries under a Scope", () => {
     // A manufacturer's id used as a lab id matches no unit's lab.
     const counts = await countUnitsByOverall({ kind: "lab", labId: kestrum.id });
     expect(counts.total).toBe(0);
+  });
+
+  it("listUnits pages through the lab's units newest first without gaps or overlaps, each with its own capture count", async () => {
+    const { lab } = await seededOrgs();
+    const scope = { kind: "lab", labId: lab.id } as const;
+    const whole = await listUnits(scope, { limit: 500 });
+    expect(whole.length).toBeGreaterThan(14);
+    const paged = [];
+    for (let offset = 0; offset < whole.length; offset += 7) paged.push(...(await listUnits(scope, { limit: 7, offset })));
+    expect(paged.map((u) => u.id)).toEqual(whole.map((u) => u.id));
+    // The order, computed here from the rows themselves: latest capture (else registration) newest first, then serial.
+    const facts = await getDb().execute<{ id: string; at: string; serial: string; n: string }>(sql`
+      select u.id, extract(epoch from coalesce(u.latest_capture_at, u.created_at))::text as at, u.serial,
+             (select count(*) from captures c where c.unit_id = u.id)::text as n
+      from units u where u.lab_id = ${lab.id} and u.retired_at is null`);
+    const byId = new Map(facts.rows.map((r) => [r.id, r]));
+    expect(byId.size).toBe(whole.length);
+    for (let i = 1; i < whole.length; i++) {
+      const [a, b] = [byId.get(whole[i - 1]!.id)!, byId.get(whole[i]!.id)!];
+      expect(Number(a.at) > Number(b.at) || (a.at === b.at && a.serial <= b.serial), `${a.serial} before ${b.serial}`).toBe(true);
+    }
+    expect(whole.map((u) => u.captureCount)).toEqual(whole.map((u) => Number(byId.get(u.id)!.n)));
+    expect(whole.some((u) => u.captureCount > 0)).toBe(true);
   });
 
   it("listUnits filters by serial text without treating % as a wildcard", async () => {
