@@ -83,7 +83,9 @@ export async function listFigureOfRecord(labId: string, key: TrendSeriesKey, fil
         : sql``,
     ])}`;
   const valid = sql`${f.value} is not null and not ${f.flagged}`;
-  const fromStep = sql`${f.planStepId} in (select id from steps)`;
+  // `= any(array(...))`, not `in (select ...)`: the planner turned the `in` into a join that lost the
+  // index order, so each unit read all ~100 of its entries and sorted them (90 ms for 500 units, 21 ms so).
+  const fromStep = sql`${f.planStepId} = any(array(select id from steps))`;
   const tier = (fromStepValue: boolean, where: SQL, order: SQL) => sql`(select ${f.captureId} as capture_id, ${f.measuredAt} as measured_at,
       ${f.value} as value, ${f.status} as status, ${f.flagged} as flagged, ${f.expandedUncertainty} as expanded_uncertainty, ${sql.raw(String(fromStepValue))} as from_step
     from ${f}${needsCapture ? sql` join ${captures} fc on fc.id = ${f.captureId}` : sql``}

@@ -88,6 +88,8 @@ try {
     ["trend ratings", () => listLabRatingsWithUnits(id.lab)],
     ["trend figures", () => listTrendFigures(id.lab, id.rating)],
     ["trend of record", () => listFigureOfRecord(id.lab, { ratingId: id.rating, figure: "thd", harmonicOrder: 0, check: "thd" }, {})],
+    // The trends page's first series: every unit's record comes from a plan step.
+    ["trend of record (voltage)", () => listFigureOfRecord(id.lab, { ratingId: id.rating, figure: "voltage", harmonicOrder: 0, check: "voltage" }, {})],
     ["portal reports", () => listClientReports(id.client)],
   ];
   const all: Sent[] = [];

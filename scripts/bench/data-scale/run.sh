@@ -1,18 +1,21 @@
 #!/usr/bin/env bash
 # npm run bench -- --data-scale [--reseed] [--rebuild] [--duration S] [--concurrency 10,50] [--only name,name]
+#                               [--web-processes N]
 # Seeds (or reuses) the emfolio_scale database with 1 000 000 captures, builds (or reuses) the app in
 # .next-scale, serves it worker-less on 127.0.0.1:$EMFOLIO_SCALE_PORT (default 3160) against that
-# database, measures every page at 10 and 50 concurrent signed-in requests, then prints the
+# database, measures every page at 10 and 50 concurrent signed-in requests (the web app as N processes
+# with --web-processes N, default 1), then prints the
 # EXPLAIN (ANALYZE, BUFFERS) of the heaviest queries. Starts only the services that are not running.
 set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/../../lib-setup.sh"
 
 PORT="${EMFOLIO_SCALE_PORT:-3160}"
-seed_args=() build=auto measure_args=()
+seed_args=() build=auto measure_args=() processes=1
 while (($# > 0)); do
   case "$1" in
     --reseed) seed_args+=(--reseed) ;;
     --rebuild) build=always ;;
+    --web-processes) processes="$2"; shift ;;
     --duration|--concurrency|--only) measure_args+=("$1" "$2"); shift ;;
     *) echo "unknown option $1" >&2; exit 2 ;;
   esac
@@ -43,11 +46,11 @@ else
 fi
 
 ensure_port_free "$PORT" "the data-scale app (EMFOLIO_SCALE_PORT)"
-node_modules/.bin/tsx scripts/serve.ts --host 127.0.0.1 --port "$PORT" >.data/log/scale-web.log 2>&1 &
+node_modules/.bin/tsx scripts/serve.ts --host 127.0.0.1 --port "$PORT" --processes "$processes" >.data/log/scale-web.log 2>&1 &
 web=$!
 trap 'kill -TERM "$web" 2>/dev/null || true; wait "$web" 2>/dev/null || true; stop_services_started_here' EXIT
 wait_for_web "http://127.0.0.1:$PORT"
-step "pages at scale ($(uptime | sed 's/.*load/load/'))"
+step "pages at scale, $processes web process(es) ($(uptime | sed 's/.*load/load/'))"
 "${TSX[@]}" scripts/bench/data-scale/measure.ts --base-url "http://127.0.0.1:$PORT" "${measure_args[@]}"
 step "EXPLAIN (ANALYZE, BUFFERS) of the heaviest queries"
 "${TSX[@]}" scripts/bench/data-scale/explain.ts
