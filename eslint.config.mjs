@@ -12,7 +12,7 @@ const envImports = [
 const PURE = "lib/analysis is pure: no I/O, clock, randomness or logging.";
 
 const config = [
-  { ignores: [".next/**", ".next-test/**", "test-results/**", "node_modules/**", ".data/**", "bench-out/**", "next-env.d.ts", "db/migrations/**"] },
+  { ignores: [".next/**", ".next-test/**", ".next-scale/**", "test-results/**", "node_modules/**", ".data/**", "bench-out/**", "next-env.d.ts", "db/migrations/**"] },
   ...next,
   {
     plugins: { emfolio: layers },
