@@ -29,24 +29,43 @@ if (!Number.isInteger(processes) || processes < 1 || processes > 64) {
 if (processes > 1 && cluster.isPrimary) {
   for (let i = 0; i < processes; i++) cluster.fork();
   let stopping = false;
+  const stopAll = (code: number) => {
+    stopping = true;
+    for (const worker of Object.values(cluster.workers ?? {})) worker?.process.kill("SIGTERM");
+    process.exit(code);
+  };
+  // A process that exits by itself before it listens (a missing setting, a missing build) would do so
+  // again, so the primary stops rather than re-forking for ever; one that served, or was killed, is replaced.
+  const served = new Set<number>();
+  cluster.on("listening", (worker) => {
+    served.add(worker.id);
+    if (served.size === processes) console.log(`Emfolio on http://${host}:${port} (${processes} processes)`);
+    else if (served.size > processes) console.log(`web process ${worker.process.pid} listening in place of one that ended`);
+  });
   cluster.on("exit", (worker, code, signal) => {
     if (stopping) return;
+    if (!served.has(worker.id) && signal === null) {
+      console.error(`web process ${worker.process.pid} ended (${code}) before it listened; stopping`);
+      stopAll(1);
+      return;
+    }
     console.error(`web process ${worker.process.pid} ended (${signal ?? code}); starting another`);
     cluster.fork();
   });
-  for (const signal of ["SIGTERM", "SIGINT"] as const) {
-    process.on(signal, () => {
-      stopping = true;
-      for (const worker of Object.values(cluster.workers ?? {})) worker?.process.kill("SIGTERM");
-      process.exit(0);
-    });
-  }
+  for (const signal of ["SIGTERM", "SIGINT"] as const) process.on(signal, () => stopAll(0));
 } else {
   const app = next({ dev: false, hostname: host, port });
-  await app.prepare();
-  const handle = app.getRequestHandler();
-  // After prepare(): Next has loaded .env files by then, as `next start` does.
-  const trusted = parseTrustedProxies(getEnv().TRUSTED_PROXIES);
+  // prepare() installs Next's uncaughtException handler, which logs and carries on: a start-up failure
+  // must end the process with status 1 itself (a cluster process would otherwise idle, never listening).
+  const started = await (async () => {
+    await app.prepare();
+    // After prepare(): Next has loaded .env files by then, as `next start` does.
+    return { handle: app.getRequestHandler(), trusted: parseTrustedProxies(getEnv().TRUSTED_PROXIES) };
+  })().catch((error: unknown) => {
+    console.error(error instanceof Error ? error.message : error);
+    process.exit(1);
+  });
+  const { handle, trusted } = started;
 
   http
     .createServer((req, res) => {
@@ -55,9 +74,14 @@ if (processes > 1 && cluster.isPrimary) {
       delete req.headers["x-real-ip"];
       void handle(req, res);
     })
+    .on("error", (error) => {
+      console.error(`cannot serve on ${host}:${port}: ${error.message}`);
+      process.exit(1);
+    })
     .listen(port, host, () => {
-      if (cluster.isPrimary || cluster.worker?.id === 1) {
-        console.log(`Emfolio on http://${host}:${port}${processes > 1 ? ` (${processes} processes)` : ""}${trusted.size ? ` (trusted proxies: ${[...trusted].join(", ")})` : ""}`);
-      }
+      const proxies = trusted.size ? ` (trusted proxies: ${[...trusted].join(", ")})` : "";
+      // With several processes the primary announces the address once all listen (above).
+      if (cluster.isPrimary) console.log(`Emfolio on http://${host}:${port}${proxies}`);
+      else if (proxies && cluster.worker?.id === 1) console.log(`web processes${proxies}`);
     });
 }

@@ -26,6 +26,14 @@ web_processes() {
 }
 fail() { echo "web processes: $1 (log: $log)" >&2; tail -20 "$log" >&2; exit 1; }
 
+# wait_for_log TEXT: the primary's log names each step (all listening, a replacement listening).
+wait_for_log() {
+  local _
+  for _ in $(seq 1 60); do grep -qF -- "$1" "$log" && return 0; sleep 1; done
+  return 1
+}
+
+wait_for_log "Emfolio on $base (2 processes)" || fail "the 2 processes did not both listen within 60 s"
 wait_for_web "$base" || fail "the app did not answer"
 before="$(web_processes | sort)"
 (($(wc -w <<<"$before") == 2)) || fail "expected 2 web processes, found: ${before:-none}"
@@ -40,8 +48,8 @@ for _ in $(seq 1 60); do
 done
 [[ -n "$replaced" ]] || fail "process $victim was not replaced within 60 s (now: ${now:-none})"
 grep -q "ended (SIGKILL); starting another" "$log" || fail "the primary did not report the ended process"
-# Each request may land on either process; 20 in a row must all answer once the new one is up.
-wait_for_web "$base" || fail "the app stopped answering after a process was killed"
+wait_for_log "listening in place of one that ended" || fail "the new process did not listen within 60 s"
+# Each request may land on either process; 20 in a row must all answer.
 for _ in $(seq 1 20); do
   curl -fsS -o /dev/null "$base/api/health/live" || fail "a liveness probe failed after the replacement"
   curl -fsS -o /dev/null "$base/sign-in" || fail "the sign-in page failed after the replacement"
