@@ -7,8 +7,9 @@ export type UnitListFilter = { search?: string; overall?: Unit["latestOverall"] 
 
 /**
  * One page of the scope's units, most recently tested (or registered) first. The page's ids are chosen
- * first (ties broken by id, so pages never overlap) and only those rows get their capture count: counted in the same select, the count ran for
- * every row the offset skips (2 501 counts for page 50, 320 ms at a million captures).
+ * first (ties broken by id, so pages never overlap) and only those rows get their capture count:
+ * counted in the same select, the count ran for every row the offset skips (2 501 counts for page 50,
+ * 320 ms at a million captures).
  */
 export async function listUnits(scope: Scope, filter: UnitListFilter = {}) {
   const where: SQL[] = [unitScopeWhere(scope)];
